@@ -1,0 +1,111 @@
+#include "core/autocorrelation.h"
+
+#include <algorithm>
+#include <cmath>
+#include <complex>
+
+#include "core/fft.h"
+
+namespace plateau {
+namespace {
+
+void GeyerSequences(const std::vector<double>& gamma, AutocorrelationResult& r) {
+  const int n = static_cast<int>(gamma.size());
+  double sum_positive = 0.0;
+  double sum_monotone = 0.0;
+  double previous = gamma[0] + (n > 1 ? gamma[1] : 0.0);
+  int pairs = 0;
+  for (int m = 0; 2 * m + 1 < n; ++m) {
+    const double pair = gamma[2 * m] + gamma[2 * m + 1];
+    if (pair <= 0.0) break;
+    sum_positive += pair;
+    previous = std::min(previous, pair);
+    sum_monotone += previous;
+    ++pairs;
+  }
+  r.geyer_pairs = pairs;
+  r.sigma2_initial_positive = -gamma[0] + 2.0 * sum_positive;
+  r.sigma2_initial_monotone = -gamma[0] + 2.0 * sum_monotone;
+}
+
+void SokalWindow(const std::vector<double>& rho, double c, AutocorrelationResult& r) {
+  double tau = 1.0;
+  const int n = static_cast<int>(rho.size());
+  for (int m = 1; m < n; ++m) {
+    tau += 2.0 * rho[m];
+    if (m >= c * tau) {
+      r.tau_sokal = tau;
+      r.sokal_window = m;
+      return;
+    }
+  }
+  r.tau_sokal = tau;
+  r.sokal_window = n - 1;
+}
+
+// A dominant period shows as a negative lobe followed by a positive one, both well outside the noise
+// of the estimated autocorrelation (Bartlett's formula, Var rho_k ~ (1 + 2 sum rho_j^2) / n, summed
+// over the initial lobe). An AR-like decay crosses zero only in noise and fails the test.
+int OscillationPeriod(const std::vector<double>& rho) {
+  const int n = static_cast<int>(rho.size());
+  const int limit = n / 4;
+  int k = 1;
+  double initial_sum_sq = 0.0;
+  for (; k < limit && rho[k] >= 0.0; ++k) initial_sum_sq += rho[k] * rho[k];
+  const double noise = std::sqrt((1.0 + 2.0 * initial_sum_sq) / n);
+  const double threshold = std::max(0.1, 4.0 * noise);
+  double lobe_min = 0.0;
+  for (; k < limit && rho[k] < 0.0; ++k) lobe_min = std::min(lobe_min, rho[k]);
+  double lobe_max = 0.0;
+  int peak = 0;
+  while (k < limit && rho[k] >= 0.0) {
+    if (rho[k] > lobe_max) {
+      lobe_max = rho[k];
+      peak = k;
+    }
+    ++k;
+  }
+  return (lobe_min < -threshold && lobe_max > threshold) ? peak : 0;
+}
+
+}  // namespace
+
+std::vector<double> Autocovariance(const std::vector<double>& series) {
+  const std::size_t n = series.size();
+  if (n == 0) return {};
+  double mean = 0.0;
+  for (double v : series) mean += v;
+  mean /= static_cast<double>(n);
+  std::size_t size = 1;
+  while (size < 2 * n) size <<= 1;
+  std::vector<std::complex<double>> data(size);
+  for (std::size_t i = 0; i < n; ++i) data[i] = series[i] - mean;
+  Fft(data, false);
+  for (auto& value : data) value = std::norm(value);
+  Fft(data, true);
+  std::vector<double> gamma(n);
+  for (std::size_t k = 0; k < n; ++k) gamma[k] = data[k].real() / static_cast<double>(n);
+  return gamma;
+}
+
+AutocorrelationResult AnalyseAutocorrelation(const std::vector<double>& series, double sokal_c) {
+  AutocorrelationResult r;
+  r.length = static_cast<int>(series.size());
+  if (r.length < 4) return r;
+  const std::vector<double> gamma = Autocovariance(series);
+  r.gamma0 = gamma[0];
+  if (!(r.gamma0 > 0.0)) {
+    r.tau_sokal = 1.0;
+    r.rho.assign(series.size(), 0.0);
+    r.rho[0] = 1.0;
+    return r;
+  }
+  r.rho.resize(gamma.size());
+  for (std::size_t k = 0; k < gamma.size(); ++k) r.rho[k] = gamma[k] / gamma[0];
+  GeyerSequences(gamma, r);
+  SokalWindow(r.rho, sokal_c, r);
+  r.oscillation_period = OscillationPeriod(r.rho);
+  return r;
+}
+
+}  // namespace plateau

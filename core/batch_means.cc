@@ -1,0 +1,66 @@
+#include "core/batch_means.h"
+
+#include <limits>
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+}  // namespace
+
+BatchMeansResult NonOverlappingBatchMeans(const std::vector<double>& series, int batches) {
+  BatchMeansResult r;
+  const int n = static_cast<int>(series.size());
+  if (batches < 2 || n < 2 * batches) {
+    r.variance_of_mean = kNaN;
+    return r;
+  }
+  const int size = n / batches;
+  const int skip = n - size * batches;
+  std::vector<double> means(batches, 0.0);
+  double grand = 0.0;
+  for (int j = 0; j < batches; ++j) {
+    double sum = 0.0;
+    for (int i = 0; i < size; ++i) sum += series[skip + j * size + i];
+    means[j] = sum / size;
+    grand += means[j];
+  }
+  grand /= batches;
+  double sum_sq = 0.0;
+  for (double m : means) sum_sq += (m - grand) * (m - grand);
+  r.batches = batches;
+  r.batch_size = size;
+  r.variance_of_mean = sum_sq / (static_cast<double>(batches) * (batches - 1));
+  return r;
+}
+
+BatchMeansResult OverlappingBatchMeans(const std::vector<double>& series, int batch_size) {
+  BatchMeansResult r;
+  const int n = static_cast<int>(series.size());
+  const int m = batch_size;
+  if (m < 1 || m >= n) {
+    r.variance_of_mean = kNaN;
+    return r;
+  }
+  double mean = 0.0;
+  for (double v : series) mean += v;
+  mean /= n;
+  // Sliding sums of deviations from the mean: no cancellation from large offsets.
+  double window = 0.0;
+  for (int i = 0; i < m; ++i) window += series[i] - mean;
+  double sum_sq = 0.0;
+  for (int j = 0;; ++j) {
+    const double batch_deviation = window / m;
+    sum_sq += batch_deviation * batch_deviation;
+    if (j + m >= n) break;
+    window += (series[j + m] - mean) - (series[j] - mean);
+  }
+  const double sigma2 = static_cast<double>(n) * m / ((n - m + 1.0) * (n - m)) * sum_sq;
+  r.batches = n - m + 1;
+  r.batch_size = m;
+  r.variance_of_mean = sigma2 / n;
+  return r;
+}
+
+}  // namespace plateau

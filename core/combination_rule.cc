@@ -1,0 +1,123 @@
+#include "core/combination_rule.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+namespace plateau {
+namespace {
+
+constexpr double kInfinity = std::numeric_limits<double>::infinity();
+
+std::string Format(double value) {
+  std::ostringstream out;
+  out.precision(3);
+  out << value;
+  return out.str();
+}
+
+double DegreesOfFreedom(Estimator estimator, int batches) {
+  switch (estimator) {
+    case Estimator::kBatchMeans:
+      return batches - 1.0;
+    case Estimator::kOverlappingBatchMeans:
+      return 1.5 * (batches - 1.0);
+    case Estimator::kAutocorrelation:
+      return kInfinity;
+  }
+  return kInfinity;
+}
+
+double ErrorOf(const EstimatorEvidence& e, Estimator estimator) {
+  switch (estimator) {
+    case Estimator::kBatchMeans:
+      return e.se_batch_means;
+    case Estimator::kOverlappingBatchMeans:
+      return e.se_overlapping_batch_means;
+    case Estimator::kAutocorrelation:
+      return e.se_autocorrelation;
+  }
+  return std::numeric_limits<double>::quiet_NaN();
+}
+
+Decision Decide(const EstimatorEvidence& e, Estimator estimator, std::string reason) {
+  Decision d;
+  d.estimator = estimator;
+  d.std_error = ErrorOf(e, estimator);
+  d.degrees_of_freedom = DegreesOfFreedom(estimator, e.batches);
+  d.reason = std::move(reason);
+  return d;
+}
+
+Estimator Largest(const EstimatorEvidence& e) {
+  Estimator best = Estimator::kAutocorrelation;
+  for (Estimator candidate : {Estimator::kBatchMeans, Estimator::kOverlappingBatchMeans}) {
+    if (ErrorOf(e, candidate) > ErrorOf(e, best)) best = candidate;
+  }
+  return best;
+}
+
+}  // namespace
+
+std::string_view EstimatorName(Estimator estimator) {
+  switch (estimator) {
+    case Estimator::kBatchMeans:
+      return "batch_means";
+    case Estimator::kOverlappingBatchMeans:
+      return "overlapping_batch_means";
+    case Estimator::kAutocorrelation:
+      return "autocorrelation";
+  }
+  return "unknown";
+}
+
+Decision CombineEstimators(const EstimatorEvidence& e) {
+  const double errors[] = {e.se_batch_means, e.se_overlapping_batch_means, e.se_autocorrelation};
+  const double largest = *std::max_element(std::begin(errors), std::end(errors));
+  const double smallest = *std::min_element(std::begin(errors), std::end(errors));
+  const double batch_side = std::max(e.se_batch_means, e.se_overlapping_batch_means);
+  const bool periodic = e.oscillation_period > 0.0;
+  const bool short_batches = e.batch_length < kBatchesPerTau * e.tau_autocorrelation;
+
+  Decision d;
+  if (std::isnan(e.se_autocorrelation) || !(e.se_autocorrelation > 0.0)) {
+    d = Decide(e, Estimator::kOverlappingBatchMeans,
+               "the autocorrelation estimate is not available; overlapping batch means decide");
+  } else if (periodic && e.batch_length >= kPeriodsPerBatch * e.oscillation_period) {
+    d = Decide(e, Estimator::kOverlappingBatchMeans,
+               "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
+                   " samples, where the autocorrelation sum overstates the error; batches of " +
+                   Format(e.batch_length / e.oscillation_period) +
+                   " periods average it out, so overlapping batch means decide");
+  } else if (periodic) {
+    d = Decide(e, Largest(e),
+               "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
+                   " samples and batches span fewer than " + Format(kPeriodsPerBatch) +
+                   " periods: the largest estimate decides");
+  } else if (short_batches) {
+    d = Decide(e, Estimator::kAutocorrelation,
+               "batches of " + Format(e.batch_length) + " samples are shorter than " +
+                   Format(kBatchesPerTau) + " integrated times (tau = " +
+                   Format(e.tau_autocorrelation) +
+                   "), so batch means are biased low; the autocorrelation estimate decides");
+  } else if (batch_side > kDisagreementFactor * e.se_autocorrelation) {
+    const Estimator larger = e.se_overlapping_batch_means >= e.se_batch_means
+                                 ? Estimator::kOverlappingBatchMeans
+                                 : Estimator::kBatchMeans;
+    d = Decide(e, larger,
+               "batch means exceed the autocorrelation estimate by a factor of " +
+                   Format(batch_side / e.se_autocorrelation) +
+                   ": slow variation beyond the autocorrelation window; batch means decide");
+  } else {
+    d = Decide(e, Estimator::kAutocorrelation,
+               "no known failure mode applies; the autocorrelation estimate has the smallest "
+               "sampling variability");
+  }
+  d.periodic = periodic;
+  d.batches_too_short = short_batches && !periodic;
+  d.disagreement = smallest > 0.0 ? largest / smallest : kInfinity;
+  return d;
+}
+
+}  // namespace plateau

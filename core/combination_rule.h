@@ -1,0 +1,60 @@
+// Chooses which variance estimate decides a statistic's half-width, from what is known about each
+// estimator's failure modes (shared/DESIGN.md, "Combining the estimators"). Pure; stateless.
+#ifndef PLATEAU_CORE_COMBINATION_RULE_H_
+#define PLATEAU_CORE_COMBINATION_RULE_H_
+
+#include <string>
+#include <string_view>
+
+namespace plateau {
+
+enum class Estimator { kBatchMeans, kOverlappingBatchMeans, kAutocorrelation };
+
+// Stable names used in JSON: batch_means, overlapping_batch_means, autocorrelation.
+std::string_view EstimatorName(Estimator estimator);
+
+// Standard errors of the mean of the linearised series, and the facts the rule needs. All times are
+// in samples. A standard error that could not be computed is NaN.
+struct EstimatorEvidence {
+  double se_batch_means = 0.0;
+  double se_overlapping_batch_means = 0.0;
+  double se_autocorrelation = 0.0;  // Geyer's initial monotone sequence
+  int batches = 0;                  // k of the non-overlapping batch means
+  double batch_length = 0.0;        // samples per batch
+  double tau_autocorrelation = 0.0;
+  double oscillation_period = 0.0;  // 0 when the autocorrelation does not oscillate
+};
+
+struct Decision {
+  Estimator estimator = Estimator::kAutocorrelation;
+  double std_error = 0.0;
+  // Degrees of freedom of the Student t quantile that goes with the deciding estimator: k - 1 for
+  // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), infinite (normal)
+  // for the autocorrelation estimate.
+  double degrees_of_freedom = 0.0;
+  std::string reason;           // one plain sentence for the user
+  double disagreement = 1.0;    // largest / smallest of the three standard errors
+  bool batches_too_short = false;
+  bool periodic = false;
+};
+
+// Batches shorter than this many autocorrelation times bias batch means low by O(tau / b).
+inline constexpr double kBatchesPerTau = 10.0;
+// Batches must span this many periods of an oscillating signal for batch means to average it out.
+inline constexpr double kPeriodsPerBatch = 10.0;
+// Estimators that differ by more than this factor are reported as disagreeing.
+inline constexpr double kDisagreementFactor = 1.5;
+
+// The rule, in order:
+//  1. oscillating autocorrelation: Geyer's sequences stop after the first lobe and overstate the
+//     error, so overlapping batch means decide when batches span >= kPeriodsPerBatch periods;
+//     otherwise the largest estimate decides (nothing is known to be safe);
+//  2. batches shorter than kBatchesPerTau * tau: batch means are biased low, autocorrelation decides;
+//  3. batch means above the autocorrelation estimate by more than kDisagreementFactor: slow variation
+//     beyond the autocorrelation's reach, so the larger batch-means estimate decides;
+//  4. otherwise the autocorrelation estimate, which has the smallest sampling variability.
+Decision CombineEstimators(const EstimatorEvidence& evidence);
+
+}  // namespace plateau
+
+#endif  // PLATEAU_CORE_COMBINATION_RULE_H_

@@ -1,0 +1,278 @@
+#include "core/row_parser.h"
+
+#include <charconv>
+#include <cmath>
+#include <cstring>
+
+namespace plateau {
+namespace {
+
+bool IsSeparator(char c) {
+  return c == ' ' || c == '\t' || c == ',' || c == ';' || c == '\r' || c == '(' || c == ')';
+}
+
+std::string_view TrimmedLeft(std::string_view line) {
+  std::size_t i = 0;
+  while (i < line.size() && (line[i] == ' ' || line[i] == '\t')) ++i;
+  return line.substr(i);
+}
+
+bool IsBlank(std::string_view line) {
+  for (char c : line) {
+    if (!IsSeparator(c)) return false;
+  }
+  return true;
+}
+
+// Parses one number token. Accepts a leading '+' and Fortran's D exponent (1.5D+03), which
+// std::from_chars does not; rejects NaN and infinities, which must never be averaged.
+enum class NumberStatus { kOk, kNotNumber, kNotFinite, kOutOfRange };
+
+NumberStatus ParseNumber(const char* begin, const char* end, double* value) {
+  if (begin < end && *begin == '+') ++begin;
+  auto [ptr, ec] = std::from_chars(begin, end, *value);
+  if (ec == std::errc() && ptr != end && (*ptr == 'D' || *ptr == 'd') && end - begin < 64) {
+    char buffer[64];
+    const std::size_t length = end - begin;
+    std::memcpy(buffer, begin, length);
+    buffer[ptr - begin] = 'e';
+    auto [p2, ec2] = std::from_chars(buffer, buffer + length, *value);
+    ptr = begin + (p2 - buffer);
+    ec = ec2;
+  }
+  if (ec == std::errc::result_out_of_range) return NumberStatus::kOutOfRange;
+  if (ec != std::errc() || ptr != end) return NumberStatus::kNotNumber;
+  return std::isfinite(*value) ? NumberStatus::kOk : NumberStatus::kNotFinite;
+}
+
+// Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
+// by spaces); `tokens` expands groups.
+struct HeaderTokens {
+  std::vector<std::string> tokens;
+  std::vector<std::string> fields;
+};
+
+HeaderTokens TokenizeHeader(std::string_view line) {
+  HeaderTokens h;
+  std::string group;
+  bool in_group = false;
+  std::size_t i = 0;
+  while (i < line.size()) {
+    const char c = line[i];
+    if (c == '(') {
+      in_group = true;
+      group.clear();
+      ++i;
+      continue;
+    }
+    if (c == ')') {
+      if (in_group) h.fields.push_back(group);
+      in_group = false;
+      ++i;
+      continue;
+    }
+    if (IsSeparator(c)) {
+      ++i;
+      continue;
+    }
+    std::size_t j = i;
+    while (j < line.size() && !IsSeparator(line[j])) ++j;
+    std::string token(line.substr(i, j - i));
+    h.tokens.push_back(token);
+    if (in_group) {
+      group += group.empty() ? token : " " + token;
+    } else {
+      h.fields.push_back(token);
+    }
+    i = j;
+  }
+  return h;
+}
+
+// Sizes of the fields of a data line: 1 for a plain value, the member count for a `(a b c)` group.
+std::vector<std::size_t> FieldSizes(std::string_view line) {
+  std::vector<std::size_t> sizes;
+  bool in_group = false;
+  std::size_t i = 0;
+  while (i < line.size()) {
+    const char c = line[i];
+    if (c == '(') {
+      in_group = true;
+      sizes.push_back(0);
+      ++i;
+    } else if (c == ')') {
+      in_group = false;
+      ++i;
+    } else if (IsSeparator(c)) {
+      ++i;
+    } else {
+      while (i < line.size() && !IsSeparator(line[i])) ++i;
+      if (in_group) {
+        ++sizes.back();
+      } else {
+        sizes.push_back(1);
+      }
+    }
+  }
+  return sizes;
+}
+
+}  // namespace
+
+void RowParser::Feed(std::string_view bytes, RowSink& sink) {
+  std::size_t pos = 0;
+  while (pos < bytes.size()) {
+    const void* found = std::memchr(bytes.data() + pos, '\n', bytes.size() - pos);
+    if (found == nullptr) {
+      const std::size_t rest = bytes.size() - pos;
+      pending_size_ += rest;
+      if (!skipping_long_line_) {
+        pending_.append(bytes.data() + pos, rest);
+        if (pending_.size() > kMaxLineBytes) {
+          ++line_;
+          Bad("line longer than 4 MiB (binary data?); skipped to its end", sink);
+          --line_;
+          pending_.clear();
+          skipping_long_line_ = true;
+        }
+      }
+      return;
+    }
+    const std::size_t end = static_cast<const char*>(found) - bytes.data();
+    ++line_;
+    if (skipping_long_line_) {
+      skipping_long_line_ = false;
+    } else if (pending_size_ == 0) {
+      ParseLine(bytes.substr(pos, end - pos), sink);
+    } else {
+      pending_.append(bytes.data() + pos, end - pos);
+      ParseLine(pending_, sink);
+    }
+    consumed_ += pending_size_ + (end - pos) + 1;
+    pending_.clear();
+    pending_size_ = 0;
+    pos = end + 1;
+  }
+}
+
+void RowParser::Resume(std::vector<std::string> names, std::uint64_t lines,
+                       std::uint64_t consumed_bytes) {
+  names_ = std::move(names);
+  column_count_ = names_.size();
+  values_.reserve(column_count_);
+  line_ = lines;
+  consumed_ = consumed_bytes;
+  pending_.clear();
+  pending_size_ = 0;
+  skipping_long_line_ = false;
+}
+
+void RowParser::Bad(std::string_view reason, RowSink& sink) {
+  ++bad_lines_;
+  sink.OnBadLine(line_, reason);
+}
+
+void RowParser::ParseLine(std::string_view line, RowSink& sink) {
+  const std::string_view trimmed = TrimmedLeft(line);
+  if (!trimmed.empty() && trimmed[0] == '#') {
+    if (!has_columns()) {
+      HeaderTokens h = TokenizeHeader(trimmed.substr(1));
+      if (!h.tokens.empty()) {
+        last_comment_tokens_ = std::move(h.tokens);
+        last_comment_fields_ = std::move(h.fields);
+      }
+    }
+    return;
+  }
+  if (IsBlank(trimmed)) return;
+  if (!has_columns()) {
+    HandleHeaderOrFirstRow(trimmed, sink);
+    return;
+  }
+  std::string reason;
+  if (!ParseNumbers(trimmed, &reason)) {
+    Bad(reason, sink);
+    return;
+  }
+  if (values_.size() != column_count_) {
+    Bad("expected " + std::to_string(column_count_) + " values, found " +
+            std::to_string(values_.size()),
+        sink);
+    return;
+  }
+  ++rows_;
+  sink.OnRow(line_, values_.data());
+}
+
+void RowParser::HandleHeaderOrFirstRow(std::string_view line, RowSink& sink) {
+  std::string reason;
+  if (!ParseNumbers(line, &reason)) {
+    HeaderTokens h = TokenizeHeader(line);
+    bool all_names = true;
+    for (const std::string& t : h.tokens) {
+      double ignored;
+      all_names = all_names && ParseNumber(t.data(), t.data() + t.size(), &ignored) ==
+                                   NumberStatus::kNotNumber;
+    }
+    if (all_names) {  // a first line of column names without '#', as CSV writers emit
+      last_comment_tokens_ = std::move(h.tokens);
+      last_comment_fields_ = std::move(h.fields);
+    } else {
+      Bad(reason, sink);
+    }
+    return;
+  }
+  column_count_ = values_.size();
+  const std::vector<std::size_t> sizes = FieldSizes(line);
+  if (last_comment_tokens_.size() == column_count_) {
+    names_ = last_comment_tokens_;
+  } else if (last_comment_fields_.size() == sizes.size()) {
+    // One name per field: a vector group `U` written as (a b c) becomes U[0] U[1] U[2].
+    for (std::size_t f = 0; f < sizes.size(); ++f) {
+      if (sizes[f] == 1) {
+        names_.push_back(last_comment_fields_[f]);
+      } else {
+        for (std::size_t k = 0; k < sizes[f]; ++k) {
+          names_.push_back(last_comment_fields_[f] + "[" + std::to_string(k) + "]");
+        }
+      }
+    }
+  } else {
+    for (std::size_t c = 0; c < column_count_; ++c) names_.push_back("col" + std::to_string(c + 1));
+  }
+  sink.OnColumns(names_);
+  ++rows_;
+  sink.OnRow(line_, values_.data());
+}
+
+bool RowParser::ParseNumbers(std::string_view line, std::string* reason) {
+  values_.clear();
+  const char* p = line.data();
+  const char* end = p + line.size();
+  while (p < end) {
+    if (IsSeparator(*p)) {
+      ++p;
+      continue;
+    }
+    const char* token_end = p;
+    while (token_end < end && !IsSeparator(*token_end)) ++token_end;
+    double value;
+    const NumberStatus status = ParseNumber(p, token_end, &value);
+    if (status != NumberStatus::kOk) {
+      const std::size_t column = values_.size();
+      std::string where = "value " + std::to_string(column + 1);
+      if (column < names_.size()) where += " (" + names_[column] + ")";
+      std::string token(p, std::min<std::size_t>(token_end - p, 40));
+      const char* what = status == NumberStatus::kNotFinite    ? "not a finite number"
+                         : status == NumberStatus::kOutOfRange ? "out of the range of a double"
+                                                               : "not a number";
+      *reason = where + ": '" + token + "' is " + what;
+      return false;
+    }
+    values_.push_back(value);
+    p = token_end;
+  }
+  return true;
+}
+
+}  // namespace plateau

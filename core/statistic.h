@@ -1,0 +1,60 @@
+// One statistic of a run: its formula over row columns, the block history of its signals, and the
+// evaluation pipeline (warm-up cut, linearisation, estimators, combination, drift).
+// Pure numerics, no I/O. Not thread-safe: one owner adds samples and evaluates.
+#ifndef PLATEAU_CORE_STATISTIC_H_
+#define PLATEAU_CORE_STATISTIC_H_
+
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "core/block_history.h"
+#include "core/evaluation_options.h"
+#include "core/statistic_estimate.h"
+#include "core/statistic_formula.h"
+
+namespace plateau {
+
+class Statistic {
+ public:
+  // Fewer samples than this after the warm-up give a value but no interval.
+  static constexpr double kMinimumSamples = 50.0;
+
+  Statistic(std::string name, StatisticFormula formula,
+            std::size_t capacity = BlockHistory::kDefaultCapacity);
+
+  const std::string& name() const { return name_; }
+  const StatisticFormula& formula() const { return formula_; }
+  const BlockHistory& history() const { return history_; }
+  BlockHistory& history() { return history_; }
+
+  // Adds the sample of one data row; `row` holds every column, the formula picks its own.
+  void Add(double time, const double* row);
+
+  // Evaluates with the data so far. Never fails: missing data shows in the estimate's state.
+  StatisticEstimate Evaluate(const EvaluationOptions& options) const;
+
+ private:
+  // Number of leading closed blocks that the warm-up policy discards.
+  int WarmupBlocks(const EvaluationOptions& options) const;
+  int MserWarmupBlocks() const;
+  using BlockMeasure = std::function<double(const double* block)>;
+  // `measure` of each closed block, oldest first.
+  std::vector<double> BlockSeries(const BlockMeasure& measure) const;
+  std::vector<double> PostWarmupSummary(int cut) const;
+  // z_b for each closed block after the cut (shared/DESIGN.md, delta method).
+  std::vector<double> LinearisedSeries(int cut, const std::vector<double>& global,
+                                       const std::vector<WeightedMoment>& terms) const;
+  double LinearisedSampleVariance(const std::vector<double>& global,
+                                  const std::vector<WeightedMoment>& terms) const;
+  void Estimate(const std::vector<double>& series, double sample_variance,
+                const EvaluationOptions& options, StatisticEstimate& e) const;
+
+  std::string name_;
+  StatisticFormula formula_;
+  BlockHistory history_;
+};
+
+}  // namespace plateau
+
+#endif  // PLATEAU_CORE_STATISTIC_H_

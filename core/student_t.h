@@ -1,0 +1,16 @@
+// Two-sided quantiles of Student's t (Boost.Math) for confidence intervals. Pure; stateless.
+#ifndef PLATEAU_CORE_STUDENT_T_H_
+#define PLATEAU_CORE_STUDENT_T_H_
+
+namespace plateau {
+
+// q such that P(|T| <= q) = confidence for T ~ t(degrees_of_freedom); an infinite number of degrees
+// of freedom gives the normal quantile. NaN for confidence outside (0, 1) or dof <= 0.
+double TwoSidedStudentQuantile(double confidence, double degrees_of_freedom);
+
+// Two-sided p-value of a standard normal score: P(|Z| >= |z|).
+double TwoSidedNormalPValue(double z);
+
+}  // namespace plateau
+
+#endif  // PLATEAU_CORE_STUDENT_T_H_
