@@ -70,6 +70,17 @@ int OscillationPeriod(const std::vector<double>& rho) {
 
 }  // namespace
 
+double ParzenLagWindowSigma2(const AutocorrelationResult& r, int window) {
+  if (window < 2 || window > static_cast<int>(r.rho.size())) return std::nan("");
+  double sum = 1.0;
+  for (int k = 1; k < window; ++k) {
+    const double u = static_cast<double>(k) / window;
+    const double w = u <= 0.5 ? 1.0 - 6.0 * u * u + 6.0 * u * u * u : 2.0 * std::pow(1.0 - u, 3);
+    sum += 2.0 * w * r.rho[k];
+  }
+  return r.gamma0 * sum;
+}
+
 std::vector<double> Autocovariance(const std::vector<double>& series) {
   const std::size_t n = series.size();
   if (n == 0) return {};

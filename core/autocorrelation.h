@@ -28,6 +28,13 @@ struct AutocorrelationResult {
   int oscillation_period = 0;
 };
 
+// Asymptotic variance by the Parzen lag window of `window` lags, sigma^2 = gamma_0 + 2 sum_{k<M}
+// w(k/M) gamma_k (Priestley 1981, "Spectral Analysis and Time Series", Sec. 6.2.3). Its spectral
+// window leaks a tone of period P only as (P/M)^4, where batch means (a Bartlett window) leak as P/M:
+// with M many periods long it averages out vortex shedding. Equivalent degrees of freedom
+// 2n / (0.539 M). NaN when window < 2 or the result has fewer than window lags.
+double ParzenLagWindowSigma2(const AutocorrelationResult& r, int window);
+
 // Analyses `series` (at least 4 finite values; fewer give a result with length < 4 and zeros).
 // A constant series has gamma0 = 0, every sigma^2 = 0 and tau = 1.
 AutocorrelationResult AnalyseAutocorrelation(const std::vector<double>& series,

@@ -25,6 +25,8 @@ double DegreesOfFreedom(Estimator estimator, int batches) {
       return 1.5 * (batches - 1.0);
     case Estimator::kAutocorrelation:
       return kInfinity;
+    case Estimator::kLagWindow:
+      return kInfinity;  // replaced by the evidence's own figure in Decide
   }
   return kInfinity;
 }
@@ -37,6 +39,8 @@ double ErrorOf(const EstimatorEvidence& e, Estimator estimator) {
       return e.se_overlapping_batch_means;
     case Estimator::kAutocorrelation:
       return e.se_autocorrelation;
+    case Estimator::kLagWindow:
+      return e.se_lag_window;
   }
   return std::numeric_limits<double>::quiet_NaN();
 }
@@ -45,14 +49,16 @@ Decision Decide(const EstimatorEvidence& e, Estimator estimator, std::string rea
   Decision d;
   d.estimator = estimator;
   d.std_error = ErrorOf(e, estimator);
-  d.degrees_of_freedom = DegreesOfFreedom(estimator, e.batches);
+  d.degrees_of_freedom = estimator == Estimator::kLagWindow ? e.lag_window_dof
+                                                            : DegreesOfFreedom(estimator, e.batches);
   d.reason = std::move(reason);
   return d;
 }
 
 Estimator Largest(const EstimatorEvidence& e) {
   Estimator best = Estimator::kAutocorrelation;
-  for (Estimator candidate : {Estimator::kBatchMeans, Estimator::kOverlappingBatchMeans}) {
+  for (Estimator candidate : {Estimator::kBatchMeans, Estimator::kOverlappingBatchMeans,
+                              Estimator::kLagWindow}) {
     if (ErrorOf(e, candidate) > ErrorOf(e, best)) best = candidate;
   }
   return best;
@@ -68,14 +74,20 @@ std::string_view EstimatorName(Estimator estimator) {
       return "overlapping_batch_means";
     case Estimator::kAutocorrelation:
       return "autocorrelation";
+    case Estimator::kLagWindow:
+      return "lag_window";
   }
   return "unknown";
 }
 
 Decision CombineEstimators(const EstimatorEvidence& e) {
-  const double errors[] = {e.se_batch_means, e.se_overlapping_batch_means, e.se_autocorrelation};
-  const double largest = *std::max_element(std::begin(errors), std::end(errors));
-  const double smallest = *std::min_element(std::begin(errors), std::end(errors));
+  double largest = 0.0;
+  double smallest = kInfinity;
+  for (double error : {e.se_batch_means, e.se_overlapping_batch_means, e.se_autocorrelation}) {
+    if (std::isnan(error)) continue;
+    largest = std::max(largest, error);
+    smallest = std::min(smallest, error);
+  }
   const double batch_side = std::max(e.se_batch_means, e.se_overlapping_batch_means);
   const bool periodic = e.oscillation_period > 0.0;
   const bool short_batches = e.batch_length < kBatchesPerTau * e.tau_autocorrelation;
@@ -84,16 +96,16 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
   if (std::isnan(e.se_autocorrelation) || !(e.se_autocorrelation > 0.0)) {
     d = Decide(e, Estimator::kOverlappingBatchMeans,
                "the autocorrelation estimate is not available; overlapping batch means decide");
-  } else if (periodic && e.batch_length >= kPeriodsPerBatch * e.oscillation_period) {
-    d = Decide(e, Estimator::kOverlappingBatchMeans,
+  } else if (periodic && e.lag_window >= kPeriodsPerWindow * e.oscillation_period) {
+    d = Decide(e, Estimator::kLagWindow,
                "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
-                   " samples, where the autocorrelation sum overstates the error; batches of " +
-                   Format(e.batch_length / e.oscillation_period) +
-                   " periods average it out, so overlapping batch means decide");
+                   " samples: the autocorrelation sum overstates the error and batch means keep a "
+                   "residue of the oscillation; a Parzen lag window of " +
+                   Format(e.lag_window / e.oscillation_period) + " periods decides");
   } else if (periodic) {
     d = Decide(e, Largest(e),
                "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
-                   " samples and batches span fewer than " + Format(kPeriodsPerBatch) +
+                   " samples and the lag window spans fewer than " + Format(kPeriodsPerWindow) +
                    " periods: the largest estimate decides");
   } else if (short_batches) {
     d = Decide(e, Estimator::kAutocorrelation,

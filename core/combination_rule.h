@@ -8,9 +8,9 @@
 
 namespace plateau {
 
-enum class Estimator { kBatchMeans, kOverlappingBatchMeans, kAutocorrelation };
+enum class Estimator { kBatchMeans, kOverlappingBatchMeans, kAutocorrelation, kLagWindow };
 
-// Stable names used in JSON: batch_means, overlapping_batch_means, autocorrelation.
+// Stable names used in JSON: batch_means, overlapping_batch_means, autocorrelation, lag_window.
 std::string_view EstimatorName(Estimator estimator);
 
 // Standard errors of the mean of the linearised series, and the facts the rule needs. All times are
@@ -19,7 +19,10 @@ struct EstimatorEvidence {
   double se_batch_means = 0.0;
   double se_overlapping_batch_means = 0.0;
   double se_autocorrelation = 0.0;  // Geyer's initial monotone sequence
+  double se_lag_window = 0.0;       // Parzen lag window
   int batches = 0;                  // k of the non-overlapping batch means
+  double lag_window = 0.0;          // samples spanned by the Parzen window
+  double lag_window_dof = 0.0;      // its equivalent degrees of freedom
   double batch_length = 0.0;        // samples per batch
   double tau_autocorrelation = 0.0;
   double oscillation_period = 0.0;  // 0 when the autocorrelation does not oscillate
@@ -29,26 +32,28 @@ struct Decision {
   Estimator estimator = Estimator::kAutocorrelation;
   double std_error = 0.0;
   // Degrees of freedom of the Student t quantile that goes with the deciding estimator: k - 1 for
-  // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), infinite (normal)
-  // for the autocorrelation estimate.
+  // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), the equivalent
+  // degrees of freedom for the lag window, infinite (normal) for the autocorrelation estimate.
   double degrees_of_freedom = 0.0;
   std::string reason;           // one plain sentence for the user
-  double disagreement = 1.0;    // largest / smallest of the three standard errors
+  // Largest / smallest of the batch-means, overlapping and autocorrelation standard errors.
+  double disagreement = 1.0;
   bool batches_too_short = false;
   bool periodic = false;
 };
 
 // Batches shorter than this many autocorrelation times bias batch means low by O(tau / b).
 inline constexpr double kBatchesPerTau = 10.0;
-// Batches must span this many periods of an oscillating signal for batch means to average it out.
-inline constexpr double kPeriodsPerBatch = 10.0;
+// The lag window must span this many periods of an oscillating signal to average it out.
+inline constexpr double kPeriodsPerWindow = 10.0;
 // Estimators that differ by more than this factor are reported as disagreeing.
 inline constexpr double kDisagreementFactor = 1.5;
 
 // The rule, in order:
 //  1. oscillating autocorrelation: Geyer's sequences stop after the first lobe and overstate the
-//     error, so overlapping batch means decide when batches span >= kPeriodsPerBatch periods;
-//     otherwise the largest estimate decides (nothing is known to be safe);
+//     error, and batch means leak a residue of the tone (a Bartlett window); the Parzen lag window
+//     decides when it spans >= kPeriodsPerWindow periods, otherwise the largest estimate decides
+//     (nothing is known to be safe);
 //  2. batches shorter than kBatchesPerTau * tau: batch means are biased low, autocorrelation decides;
 //  3. batch means above the autocorrelation estimate by more than kDisagreementFactor: slow variation
 //     beyond the autocorrelation's reach, so the larger batch-means estimate decides;

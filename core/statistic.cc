@@ -159,7 +159,14 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   e.se_autocorrelation = acf.sigma2_initial_monotone > 0.0
                              ? std::sqrt(acf.sigma2_initial_monotone / blocks)
                              : StatisticEstimate::kNaN;
-  e.se_sokal = std::sqrt(acf.gamma0 * acf.tau_sokal / blocks);
+  // An oscillating autocorrelation can drive Sokal's partial sum negative: no estimate then.
+  e.se_sokal = acf.tau_sokal > 0.0 ? std::sqrt(acf.gamma0 * acf.tau_sokal / blocks)
+                                   : StatisticEstimate::kNaN;
+  // A Parzen window twice the batch length has about the sampling variability of the batch means.
+  const int window = std::min(2 * bm.batch_size, blocks / 2);
+  const double lag_sigma2 = ParzenLagWindowSigma2(acf, window);
+  e.se_lag_window = lag_sigma2 > 0.0 ? std::sqrt(lag_sigma2 / blocks) : StatisticEstimate::kNaN;
+  e.lag_window = window * length;
   const auto tau_of = [&](double se) {
     return sample_variance > 0.0 ? closed_samples * se * se / sample_variance : 1.0;
   };
@@ -172,6 +179,9 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   evidence.se_batch_means = e.se_batch_means;
   evidence.se_overlapping_batch_means = e.se_overlapping_batch_means;
   evidence.se_autocorrelation = e.se_autocorrelation;
+  evidence.se_lag_window = e.se_lag_window;
+  evidence.lag_window = e.lag_window;
+  evidence.lag_window_dof = 2.0 * blocks / (0.539 * window);
   evidence.batches = bm.batches;
   evidence.batch_length = e.batch_length;
   evidence.tau_autocorrelation = e.integrated_time_geyer;

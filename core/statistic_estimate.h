@@ -41,11 +41,13 @@ struct StatisticEstimate {
   double se_overlapping_batch_means = kNaN;
   double se_autocorrelation = kNaN;  // Geyer initial monotone sequence
   double se_sokal = kNaN;            // Sokal's automatic window, a cross-check
+  double se_lag_window = kNaN;       // Parzen lag window, for oscillating signals
   double integrated_time = kNaN;     // in samples, implied by the deciding estimator
   double integrated_time_geyer = kNaN;
   double integrated_time_sokal = kNaN;
   double effective_samples = kNaN;   // samples_used / integrated_time
   double batch_length = kNaN;        // samples per batch
+  double lag_window = kNaN;          // samples spanned by the Parzen window
   double oscillation_period = 0.0;   // samples; 0 when not oscillating
 
   double confidence = kNaN;
