@@ -13,9 +13,12 @@
 namespace plateau {
 namespace {
 
-// MSER-5: truncation is searched on batches of at least five samples (White, Cobb & Spratt 2000,
-// "A comparison of five steady-state truncation heuristics", Winter Simulation Conference).
+// MSER is searched on batches of at least five samples (MSER-5: White, Cobb & Spratt 2000, "A
+// comparison of five steady-state truncation heuristics", Winter Simulation Conference) and of at
+// least 1/256 of the run: turbulence signals are correlated over many samples, and a slow start-up
+// transient whose bias matters can stay below the noise of short batches.
 constexpr std::uint64_t kMserBatchSamples = 5;
+constexpr std::size_t kMserBatches = 256;
 
 std::string Format(double value) {
   std::ostringstream out;
@@ -57,16 +60,23 @@ std::vector<double> Statistic::BlockSeries(const BlockMeasure& measure) const {
   return series;
 }
 
-int Statistic::MserWarmupBlocks() const {
+std::size_t Statistic::MserGroup() const {
   const std::uint64_t length = history_.block_length();
-  const std::size_t group =
-      static_cast<std::size_t>((kMserBatchSamples + length - 1) / length);
+  return std::max(static_cast<std::size_t>((kMserBatchSamples + length - 1) / length),
+                  (history_.block_count() + kMserBatches - 1) / kMserBatches);
+}
+
+int Statistic::MserWarmupBlocks() const {
+  const std::size_t group = MserGroup();
   const MomentLayout& layout = history_.layout();
-  // The transient may show in a signal's mean before it shows in a higher moment, or the other way
-  // round (fluctuations still growing after the mean has settled): cut where the last one ends.
-  std::size_t cut = group * MserTruncation(Grouped(
-                                BlockSeries([&](const double* b) { return formula_.Value(layout, b); }),
-                                group));
+  // MSER searches the series the estimators average: the linearised block values about the
+  // all-data means (for a mean, the block means). The transient may also show in a signal's mean
+  // before it shows in a higher moment, so for other kinds each signal's block means are searched
+  // too, and the cut is where the last transient ends.
+  const std::vector<double> global = PostWarmupSummary(0);
+  const std::vector<double> linearised =
+      LinearisedSeries(0, global, formula_.Linearisation(layout, global.data()));
+  std::size_t cut = group * MserTruncation(Grouped(linearised, group));
   if (formula_.kind() != StatisticKind::kMean) {
     for (int i = 0; i < layout.signals(); ++i) {
       const std::vector<double> means =
@@ -217,6 +227,7 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
   e.last_time = history_.last_time();
 
   const int cut = WarmupBlocks(options);
+  if (options.warmup == WarmupPolicy::kAuto) e.warmup_batch_length = MserGroup() * e.block_length;
   const std::vector<double> global = PostWarmupSummary(cut);
   e.samples_used = static_cast<std::uint64_t>(layout.Count(global.data()));
   e.warmup_end_time = layout.FirstTime(global.data());

@@ -38,6 +38,8 @@ class Statistic {
   // Number of leading closed blocks that the warm-up policy discards.
   int WarmupBlocks(const EvaluationOptions& options) const;
   int MserWarmupBlocks() const;
+  // Blocks per MSER batch: at least five samples and at most kMserBatches batches.
+  std::size_t MserGroup() const;
   using BlockMeasure = std::function<double(const double* block)>;
   // `measure` of each closed block, oldest first.
   std::vector<double> BlockSeries(const BlockMeasure& measure) const;

@@ -33,6 +33,7 @@ struct StatisticEstimate {
   double first_time = kNaN;
   double last_time = kNaN;
   double warmup_end_time = kNaN;  // time of the first sample used
+  std::uint64_t warmup_batch_length = 0;  // samples per batch of the MSER search (kAuto only)
   std::uint64_t block_length = 0;
   int blocks_used = 0;
 

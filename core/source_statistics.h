@@ -1,0 +1,59 @@
+// The statistics of one source (one file layout, possibly many files of a restarted run), fed with
+// its rows in time order: resolves column names, gates restart overlap, routes each row to every
+// statistic. Pure: rows in, no I/O. Not thread-safe: one owner feeds and evaluates.
+#ifndef PLATEAU_CORE_SOURCE_STATISTICS_H_
+#define PLATEAU_CORE_SOURCE_STATISTICS_H_
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/statistic.h"
+#include "core/statistic_request.h"
+#include "core/time_order_gate.h"
+
+namespace plateau {
+
+class SourceStatistics {
+ public:
+  // Resolves `time_column` (a column name, or a 1-based column number; empty means the first
+  // column) and every request's columns against `columns`. On an unknown column or a wrong column
+  // count returns nullopt and sets *error to a message naming the column and listing the known ones.
+  static std::optional<SourceStatistics> Make(std::vector<std::string> columns,
+                                              const std::string& time_column,
+                                              const std::vector<StatisticRequest>& requests,
+                                              std::size_t capacity, std::string* error);
+
+  // A mean request for every column but the time column: what `analyze` does by default.
+  static std::vector<StatisticRequest> MeansOfEveryColumn(const std::vector<std::string>& columns,
+                                                          const std::string& time_column);
+
+  // Adds one row of every column. Returns false when its time is not after the last admitted time
+  // (restart overlap): the row is then counted in gate() and used by no statistic.
+  bool Add(const double* row);
+
+  const std::vector<std::string>& columns() const { return columns_; }
+  int time_index() const { return time_index_; }
+  const TimeOrderGate& gate() const { return gate_; }
+  TimeOrderGate& gate() { return gate_; }
+  std::vector<Statistic>& statistics() { return statistics_; }
+  const std::vector<Statistic>& statistics() const { return statistics_; }
+  // Column names of each statistic, in the order of statistics().
+  const std::vector<std::vector<std::string>>& statistic_columns() const { return columns_of_; }
+
+ private:
+  SourceStatistics(std::vector<std::string> columns, int time_index);
+
+  std::vector<std::string> columns_;
+  int time_index_;
+  TimeOrderGate gate_;
+  std::vector<Statistic> statistics_;
+  std::vector<std::vector<std::string>> columns_of_;
+};
+
+// Position of `column` (a name, else a 1-based number) in `columns`; -1 when neither matches.
+int ResolveColumn(const std::vector<std::string>& columns, const std::string& column);
+
+}  // namespace plateau
+
+#endif  // PLATEAU_CORE_SOURCE_STATISTICS_H_

@@ -1,0 +1,25 @@
+#include "core/statistic_request.h"
+
+namespace plateau {
+
+std::string DefaultStatisticName(StatisticKind kind, const std::vector<std::string>& columns) {
+  std::string joined;
+  for (const std::string& c : columns) joined += (joined.empty() ? "" : ",") + c;
+  switch (kind) {
+    case StatisticKind::kMean:
+      return joined;
+    case StatisticKind::kVariance:
+      return "var(" + joined + ")";
+    case StatisticKind::kRms:
+      return "rms(" + joined + ")";
+    case StatisticKind::kCovariance:
+      return "cov(" + joined + ")";
+    case StatisticKind::kThirdMoment:
+      return "m3(" + joined + ")";
+    case StatisticKind::kTke:
+      return "tke(" + joined + ")";
+  }
+  return joined;
+}
+
+}  // namespace plateau

@@ -1,0 +1,246 @@
+#include "daemon/analysis_report.h"
+
+#include <cmath>
+#include <cstdio>
+
+#include "daemon/text_table.h"
+
+namespace plateau {
+namespace {
+
+std::string Printf(const char* format, double value) {
+  char buffer[64];
+  std::snprintf(buffer, sizeof buffer, format, value);
+  return buffer;
+}
+
+std::string_view EstimateStateName(EstimateState state) {
+  switch (state) {
+    case EstimateState::kNoData:
+      return "no_data";
+    case EstimateState::kNotEnoughData:
+      return "not_enough_data";
+    case EstimateState::kEstimated:
+      return "estimated";
+  }
+  return "unknown";
+}
+
+std::string WarmupDescription(const EvaluationOptions& options) {
+  switch (options.warmup) {
+    case WarmupPolicy::kAuto:
+      return "automatic (MSER-5)";
+    case WarmupPolicy::kNone:
+      return "none";
+    case WarmupPolicy::kFixedTime:
+      return "fixed, before time " + FormatValue(options.warmup_time);
+  }
+  return "";
+}
+
+std::string DriftCell(const StatisticEstimate& e) {
+  if (!e.drift.available) return "untested";
+  if (e.drift_detected) return "DRIFTING (p " + Printf("%.1g", e.drift.p_value) + ")";
+  return "no";
+}
+
+std::string FileLine(const FileSummary& f) {
+  std::string line = f.path + ": " + std::to_string(f.rows) + " rows";
+  if (f.rows > 0) {
+    line += ", time " + FormatValue(f.first_time) + " to " + FormatValue(f.last_time);
+  }
+  if (f.bad_lines > 0) {
+    line += ", " + std::to_string(f.bad_lines) + (f.bad_lines == 1 ? " bad line" : " bad lines");
+  }
+  if (f.restart_overlap > 0) {
+    line += ", " + std::to_string(f.restart_overlap) + " rows of restart overlap skipped";
+  }
+  return line;
+}
+
+void AddStatisticRow(TextTable& table, const StatisticEstimate& e) {
+  if (e.state != EstimateState::kEstimated) {
+    table.AddRow({e.name, FormatValue(e.value), "-", "-", "-", "-",
+                  std::isnan(e.warmup_end_time) ? "-" : FormatValue(e.warmup_end_time), "-",
+                  e.state == EstimateState::kNoData ? "no data" : "not enough data"});
+    return;
+  }
+  table.AddRow({e.name, FormatValue(e.value), FormatHalfWidth(e.half_width),
+                FormatPercent(e.relative_half_width), Printf("%.3g", e.integrated_time),
+                Printf("%.0f", e.effective_samples), FormatValue(e.warmup_end_time), DriftCell(e),
+                std::string(EstimatorName(e.decision.estimator))});
+}
+
+void WriteWarmup(JsonWriter& json, const EvaluationOptions& options) {
+  json.Key("warmup");
+  switch (options.warmup) {
+    case WarmupPolicy::kAuto:
+      json.String("auto");
+      return;
+    case WarmupPolicy::kNone:
+      json.String("none");
+      return;
+    case WarmupPolicy::kFixedTime:
+      json.Number(options.warmup_time);
+      return;
+  }
+}
+
+}  // namespace
+
+std::string FormatValue(double value) {
+  return std::isnan(value) ? "-" : Printf("%.6g", value);
+}
+
+std::string FormatHalfWidth(double value) {
+  return std::isnan(value) ? "-" : "±" + Printf("%.2g", value);
+}
+
+std::string FormatPercent(double fraction) {
+  if (std::isnan(fraction)) return "-";
+  // Past 100 % the interval includes zero: the relative width of a near-zero mean says nothing.
+  return fraction > 1.0 ? ">100 %" : Printf("%.3g", 100.0 * fraction) + " %";
+}
+
+void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
+                         const std::vector<std::string>& columns) {
+  json.Field("name", e.name);
+  json.Field("kind", KindName(e.kind));
+  json.Key("columns");
+  json.BeginArray();
+  for (const std::string& c : columns) json.String(c);
+  json.EndArray();
+  json.Field("estimate_state", EstimateStateName(e.state));
+  if (!e.state_reason.empty()) json.Field("estimate_reason", e.state_reason);
+  json.Field("samples_total", e.samples_total);
+  json.Field("samples_used", e.samples_used);
+  json.Field("first_time", e.first_time);
+  json.Field("last_time", e.last_time);
+  json.Field("warmup_end_time", e.warmup_end_time);
+  json.Field("mean", e.value);
+  json.Key("std_error");
+  json.BeginObject();
+  json.Field("batch_means", e.se_batch_means);
+  json.Field("overlapping_batch_means", e.se_overlapping_batch_means);
+  json.Field("autocorrelation", e.se_autocorrelation);
+  json.Field("autocorrelation_sokal", e.se_sokal);
+  json.Field("lag_window", e.se_lag_window);
+  json.EndObject();
+  json.Field("integrated_time", e.integrated_time);
+  json.Key("integrated_time_by");
+  json.BeginObject();
+  json.Field("geyer", e.integrated_time_geyer);
+  json.Field("sokal", e.integrated_time_sokal);
+  json.EndObject();
+  json.Field("effective_samples", e.effective_samples);
+  json.Field("confidence", e.confidence);
+  json.Field("half_width", e.half_width);
+  json.Field("relative_half_width", e.relative_half_width);
+  const bool estimated = e.state == EstimateState::kEstimated;
+  json.Key("decided_by");
+  if (estimated) {
+    json.String(EstimatorName(e.decision.estimator));
+  } else {
+    json.Null();
+  }
+  json.Field("decision_reason", estimated ? e.decision.reason : "");
+  json.Field("estimators_disagree", estimated && e.decision.disagreement > kDisagreementFactor);
+  json.Field("disagreement", estimated ? e.decision.disagreement : StatisticEstimate::kNaN);
+  json.Field("batch_length", e.batch_length);
+  json.Field("block_length", e.block_length);
+  json.Field("oscillation_period", e.oscillation_period > 0 ? e.oscillation_period
+                                                             : StatisticEstimate::kNaN);
+  json.Key("drift");
+  json.BeginObject();
+  json.Field("tested", e.drift.available);
+  json.Field("detected", e.drift_detected);
+  json.Field("geweke_z", e.drift.available ? e.drift.z : StatisticEstimate::kNaN);
+  json.Field("p_value", e.drift.available ? e.drift.p_value : StatisticEstimate::kNaN);
+  json.EndObject();
+  json.Key("warnings");
+  json.BeginArray();
+  for (const std::string& w : e.warnings) json.String(w);
+  json.EndArray();
+}
+
+std::string FormatAnalysisTable(const AnalysisResult& result) {
+  std::string out;
+  for (const FileSummary& f : result.files) out += FileLine(f) + "\n";
+  out += FormatPercent(result.options.confidence) + " confidence, warm-up " +
+         WarmupDescription(result.options) +
+         ", " + std::to_string(result.options.batches) + " batches, time column '" +
+         result.time_column + "'\n\n";
+  using A = TextTable::Align;
+  TextTable table({{"statistic", A::kLeft},
+                   {"value", A::kRight},
+                   {"± half-width", A::kRight},
+                   {"relative", A::kRight},
+                   {"τ [samples]", A::kRight},
+                   {"n_eff", A::kRight},
+                   {"warm-up ends", A::kRight},
+                   {"drift", A::kLeft},
+                   {"decided by", A::kLeft}});
+  for (const StatisticEstimate& e : result.estimates) AddStatisticRow(table, e);
+  out += table.Render();
+
+  std::vector<std::string> notes = result.notes;
+  for (const StatisticEstimate& e : result.estimates) {
+    if (!e.state_reason.empty()) notes.push_back(e.name + ": " + e.state_reason);
+    for (const std::string& w : e.warnings) notes.push_back(e.name + ": " + w);
+  }
+  for (const FileSummary& f : result.files) {
+    for (const std::string& bad : f.bad_line_examples) notes.push_back("bad line " + bad);
+    if (f.bad_lines > f.bad_line_examples.size()) {
+      notes.push_back(f.path + ": " + std::to_string(f.bad_lines - f.bad_line_examples.size()) +
+                      " more bad lines not shown");
+    }
+    if (f.unterminated_last_line) {
+      notes.push_back(f.path + ": the last line has no newline yet (still being written?) and "
+                               "was not used");
+    }
+  }
+  if (!notes.empty()) {
+    out += "\nnotes:\n";
+    for (const std::string& n : notes) out += "  " + n + "\n";
+  }
+  return out;
+}
+
+std::string FormatAnalysisJson(const AnalysisResult& result) {
+  JsonWriter json;
+  json.BeginObject();
+  json.Key("files");
+  json.BeginArray();
+  for (const FileSummary& f : result.files) {
+    json.BeginObject();
+    json.Field("path", f.path);
+    json.Field("rows", f.rows);
+    json.Field("bad_lines", f.bad_lines);
+    json.Field("restart_overlap", f.restart_overlap);
+    json.Field("first_time", f.first_time);
+    json.Field("last_time", f.last_time);
+    json.Field("unterminated_last_line", f.unterminated_last_line);
+    json.EndObject();
+  }
+  json.EndArray();
+  json.Field("time_column", result.time_column);
+  json.Field("confidence", result.options.confidence);
+  json.Field("batches", result.options.batches);
+  WriteWarmup(json, result.options);
+  json.Key("statistics");
+  json.BeginArray();
+  for (std::size_t i = 0; i < result.estimates.size(); ++i) {
+    json.BeginObject();
+    WriteEstimateFields(json, result.estimates[i], result.statistic_columns[i]);
+    json.EndObject();
+  }
+  json.EndArray();
+  json.Key("notes");
+  json.BeginArray();
+  for (const std::string& n : result.notes) json.String(n);
+  json.EndArray();
+  json.EndObject();
+  return json.text() + "\n";
+}
+
+}  // namespace plateau

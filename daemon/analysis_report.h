@@ -1,0 +1,32 @@
+// Presents an AnalysisResult: a table a person reads at a glance, or one JSON object with stable keys
+// for scripts. Formatting only; every number was computed in core. Stateless.
+#ifndef PLATEAU_DAEMON_ANALYSIS_REPORT_H_
+#define PLATEAU_DAEMON_ANALYSIS_REPORT_H_
+
+#include <string>
+#include <vector>
+
+#include "core/statistic_estimate.h"
+#include "daemon/analysis_result.h"
+#include "daemon/json_writer.h"
+
+namespace plateau {
+
+std::string FormatAnalysisTable(const AnalysisResult& result);
+std::string FormatAnalysisJson(const AnalysisResult& result);
+
+// The keys of one statistic, shared by every JSON output (analyze, later status): name, kind,
+// columns, estimate_state, samples_total, samples_used, warmup_end_time, mean, std_error{...},
+// integrated_time, effective_samples, confidence, half_width, relative_half_width, decided_by,
+// drift{...}, warnings and the diagnostics beside them. Undefined numbers are null.
+void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
+                         const std::vector<std::string>& columns);
+
+// Short human forms used in tables: 6 significant digits for values, 2 for half-widths.
+std::string FormatValue(double value);
+std::string FormatHalfWidth(double value);
+std::string FormatPercent(double fraction);
+
+}  // namespace plateau
+
+#endif  // PLATEAU_DAEMON_ANALYSIS_REPORT_H_

@@ -1,0 +1,359 @@
+#include "daemon/analyze_command.h"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <limits>
+#include <optional>
+
+#include "core/row_parser.h"
+#include "core/source_statistics.h"
+#include "daemon/analysis_report.h"
+#include "daemon/analysis_result.h"
+#include "daemon/probe_file_reader.h"
+
+namespace plateau {
+namespace {
+
+constexpr std::size_t kBadLineExamplesPerFile = 10;
+
+struct AnalyzeOptions {
+  std::vector<std::string> files;
+  std::string time_column;
+  std::string means = "all";  // all, none, or a comma-separated list
+  std::vector<std::string> variance_lists;
+  std::vector<std::string> rms_lists;
+  std::vector<std::string> covariances;
+  std::vector<std::string> third_moments;
+  std::vector<std::string> tkes;
+  EvaluationOptions evaluation;
+  std::size_t capacity = BlockHistory::kDefaultCapacity;
+  bool json = false;
+  bool help = false;
+};
+
+std::vector<std::string> SplitList(const std::string& list) {
+  std::vector<std::string> items;
+  std::string item;
+  for (char c : list) {
+    if (c == ',') {
+      items.push_back(item);
+      item.clear();
+    } else {
+      item += c;
+    }
+  }
+  items.push_back(item);
+  return items;
+}
+
+std::optional<double> ParseDouble(const std::string& text) {
+  double value = 0.0;
+  const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+  if (ec != std::errc() || ptr != text.data() + text.size() || !std::isfinite(value)) {
+    return std::nullopt;
+  }
+  return value;
+}
+
+std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
+                                           std::string* error) {
+  AnalyzeOptions o;
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    const auto value = [&]() -> std::optional<std::string> {
+      if (i + 1 >= args.size()) {
+        *error = a + " needs a value";
+        return std::nullopt;
+      }
+      return args[++i];
+    };
+    if (a == "--help" || a == "-h") {
+      o.help = true;
+    } else if (a == "--json") {
+      o.json = true;
+    } else if (a == "--time" || a == "--means" || a == "--variance" || a == "--rms" ||
+               a == "--covariance" || a == "--third-moment" || a == "--tke" ||
+               a == "--confidence" || a == "--batches" || a == "--warmup" || a == "--blocks") {
+      const auto v = value();
+      if (!v) return std::nullopt;
+      if (a == "--time") o.time_column = *v;
+      if (a == "--means") o.means = *v;
+      if (a == "--variance") o.variance_lists.push_back(*v);
+      if (a == "--rms") o.rms_lists.push_back(*v);
+      if (a == "--covariance") o.covariances.push_back(*v);
+      if (a == "--third-moment") o.third_moments.push_back(*v);
+      if (a == "--tke") o.tkes.push_back(*v);
+      if (a == "--confidence") {
+        const auto c = ParseDouble(*v);
+        if (!c || *c <= 0.0 || *c >= 1.0) {
+          *error = "--confidence takes a fraction between 0 and 1, such as 0.95; got '" + *v + "'";
+          return std::nullopt;
+        }
+        o.evaluation.confidence = *c;
+      }
+      if (a == "--batches") {
+        const auto k = ParseDouble(*v);
+        if (!k || *k != std::floor(*k) || *k < 2 || *k > 1000) {
+          *error = "--batches takes a whole number from 2 to 1000 (20 to 30 is usual); got '" +
+                   *v + "'";
+          return std::nullopt;
+        }
+        o.evaluation.batches = static_cast<int>(*k);
+      }
+      if (a == "--warmup") {
+        if (*v == "auto") {
+          o.evaluation.warmup = WarmupPolicy::kAuto;
+        } else if (*v == "none") {
+          o.evaluation.warmup = WarmupPolicy::kNone;
+        } else if (const auto t = ParseDouble(*v)) {
+          o.evaluation.warmup = WarmupPolicy::kFixedTime;
+          o.evaluation.warmup_time = *t;
+        } else {
+          *error = "--warmup takes auto, none or a time in the units of the time column; got '" +
+                   *v + "'";
+          return std::nullopt;
+        }
+      }
+      if (a == "--blocks") {
+        const auto c = ParseDouble(*v);
+        if (!c || *c < 64 || *c > (1 << 24) || *c != std::floor(*c)) {
+          *error = "--blocks takes a whole number from 64 to 16777216; got '" + *v + "'";
+          return std::nullopt;
+        }
+        o.capacity = static_cast<std::size_t>(*c);
+      }
+    } else if (!a.empty() && a[0] == '-') {
+      *error = "unknown option " + a + " (see plateau analyze --help)";
+      return std::nullopt;
+    } else {
+      o.files.push_back(a);
+    }
+  }
+  if (!o.help && o.files.empty()) {
+    *error = "no probe file given (see plateau analyze --help)";
+    return std::nullopt;
+  }
+  if (o.capacity < static_cast<std::size_t>(4 * o.evaluation.batches)) {
+    *error = "--blocks must be at least four times --batches";
+    return std::nullopt;
+  }
+  return o;
+}
+
+// Columns named by a list option: "all" is every column but the time column.
+std::vector<std::string> ListedColumns(const std::string& list,
+                                       const std::vector<std::string>& columns,
+                                       const std::string& time_column) {
+  if (list != "all") return SplitList(list);
+  std::vector<std::string> all;
+  for (const StatisticRequest& r : SourceStatistics::MeansOfEveryColumn(columns, time_column)) {
+    all.push_back(r.columns[0]);
+  }
+  return all;
+}
+
+std::vector<StatisticRequest> BuildRequests(const AnalyzeOptions& o,
+                                            const std::vector<std::string>& columns) {
+  std::vector<StatisticRequest> requests;
+  if (o.means != "none") {
+    for (const std::string& c : ListedColumns(o.means, columns, o.time_column)) {
+      requests.push_back({StatisticKind::kMean, {c}, ""});
+    }
+  }
+  const auto per_column = [&](const std::vector<std::string>& lists, StatisticKind kind) {
+    for (const std::string& list : lists) {
+      for (const std::string& c : ListedColumns(list, columns, o.time_column)) {
+        requests.push_back({kind, {c}, ""});
+      }
+    }
+  };
+  per_column(o.variance_lists, StatisticKind::kVariance);
+  per_column(o.rms_lists, StatisticKind::kRms);
+  const auto grouped = [&](const std::vector<std::string>& lists, StatisticKind kind) {
+    for (const std::string& list : lists) requests.push_back({kind, SplitList(list), ""});
+  };
+  grouped(o.covariances, StatisticKind::kCovariance);
+  grouped(o.third_moments, StatisticKind::kThirdMoment);
+  grouped(o.tkes, StatisticKind::kTke);
+  return requests;
+}
+
+// Feeds one file's rows into the source; creates the source from the first file's columns.
+class AnalyzeSink : public RowSink {
+ public:
+  AnalyzeSink(const AnalyzeOptions& options, std::optional<SourceStatistics>& source,
+              FileSummary& summary, std::vector<std::string>& notes)
+      : options_(options), source_(source), summary_(summary), notes_(notes) {}
+
+  const std::string& error() const { return error_; }
+
+  void OnColumns(const std::vector<std::string>& names) override {
+    if (source_) {
+      if (names != source_->columns()) {
+        error_ = summary_.path + ": its columns differ from the first file's";
+      }
+      return;
+    }
+    std::string error;
+    source_ = SourceStatistics::Make(names, options_.time_column, BuildRequests(options_, names),
+                                     options_.capacity, &error);
+    if (!source_) error_ = summary_.path + ": " + error;
+  }
+
+  void OnRow(std::uint64_t, const double* values) override {
+    if (!error_.empty() || !source_) return;
+    ++summary_.rows;
+    if (!source_->Add(values)) {
+      ++summary_.restart_overlap;
+      return;
+    }
+    const double time = values[source_->time_index()];
+    if (std::isnan(summary_.first_time)) summary_.first_time = time;
+    summary_.last_time = time;
+    if (source_->gate().skipped() > reported_skipped_) ReportOverlap();
+  }
+
+  void OnBadLine(std::uint64_t line, std::string_view reason) override {
+    if (summary_.bad_line_examples.size() < kBadLineExamplesPerFile) {
+      summary_.bad_line_examples.push_back(summary_.path + ":" + std::to_string(line) + ": " +
+                                           std::string(reason));
+    }
+  }
+
+ private:
+  void ReportOverlap() {
+    const TimeOrderGate::Overlap o = source_->gate().TakeFinishedOverlap();
+    reported_skipped_ = source_->gate().skipped();
+    if (o.samples == 0) return;
+    notes_.push_back("restart overlap: " + std::to_string(o.samples) + " rows with times " +
+                     FormatValue(o.first_time) + " to " + FormatValue(o.last_time) +
+                     " were already recorded and were skipped (" + summary_.path + ")");
+  }
+
+  const AnalyzeOptions& options_;
+  std::optional<SourceStatistics>& source_;
+  FileSummary& summary_;
+  std::vector<std::string>& notes_;
+  std::string error_;
+  std::uint64_t reported_skipped_ = 0;
+};
+
+// Time of the first data row of a file, for reading the files of a restarted run in time order;
+// infinity when the file has none (it then goes last).
+double FirstTime(const std::string& path, const std::string& time_column) {
+  struct FirstRow : RowSink {
+    std::vector<std::string> names;
+    double time = std::numeric_limits<double>::infinity();
+    const std::string* time_column = nullptr;
+    void OnColumns(const std::vector<std::string>& n) override { names = n; }
+    void OnRow(std::uint64_t, const double* values) override {
+      if (!std::isinf(time)) return;
+      const int index = time_column->empty() ? 0 : ResolveColumn(names, *time_column);
+      if (index >= 0) time = values[index];
+    }
+    void OnBadLine(std::uint64_t, std::string_view) override {}
+  } first;
+  first.time_column = &time_column;
+  RowParser parser;
+  ReadProbeFile(path, 0, parser, first, [&] { return std::isinf(first.time); });
+  return first.time;
+}
+
+}  // namespace
+
+std::string AnalyzeUsage() {
+  return R"(usage: plateau analyze FILE... [options]
+
+Estimates every requested time average of existing probe files, with its confidence interval,
+integrated autocorrelation time, effective sample size, warm-up cut and drift test. Several files
+are one restarted run: they are read in the order of their first time, and rows whose time is not
+after the last one read are skipped as restart overlap.
+
+By default every column except the time column gets its mean.
+
+options:
+  --time COL            time column, by name or 1-based number (default: the first column)
+  --means LIST          columns whose mean is estimated: all (default), none, or a,b,c
+  --variance LIST       add the variance <x'x'> of each listed column (or all)
+  --rms LIST            add the rms sqrt(<x'x'>) of each listed column (or all)
+  --covariance A,B      add the covariance <a'b'>, e.g. the Reynolds shear stress (repeatable)
+  --third-moment A,B,C  add the third moment <a'b'c'>, columns may repeat: u,u,v (repeatable)
+  --tke U,V,W           add the turbulent kinetic energy (<u'u'>+<v'v'>+<w'w'>)/2 (repeatable)
+  --confidence C        confidence level of the intervals (default 0.95)
+  --batches K           number of non-overlapping batches (default 20)
+  --warmup W            auto (MSER-5, default), none, or a time before which samples are dropped
+  --blocks N            blocks kept per statistic (default 4096; memory per statistic)
+  --json                one JSON object instead of the table
+
+exit status: 0 analysed, 2 bad usage or unusable input.
+)";
+}
+
+int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  std::string error;
+  const std::optional<AnalyzeOptions> parsed = ParseOptions(args, &error);
+  if (!parsed) {
+    err << "plateau analyze: " << error << "\n";
+    return 2;
+  }
+  const AnalyzeOptions& options = *parsed;
+  if (options.help) {
+    out << AnalyzeUsage();
+    return 0;
+  }
+  std::vector<std::pair<double, std::string>> ordered;
+  for (const std::string& path : options.files) {
+    ordered.emplace_back(FirstTime(path, options.time_column), path);
+  }
+  std::stable_sort(ordered.begin(), ordered.end(),
+                   [](const auto& a, const auto& b) { return a.first < b.first; });
+
+  AnalysisResult result;
+  result.options = options.evaluation;
+  std::optional<SourceStatistics> source;
+  for (const auto& [first_time, path] : ordered) {
+    FileSummary summary;
+    summary.path = path;
+    RowParser parser;
+    AnalyzeSink sink(options, source, summary, result.notes);
+    const FileReadResult read =
+        ReadProbeFile(path, 0, parser, sink, [&] { return sink.error().empty(); });
+    if (!read.ok) {
+      err << "plateau analyze: " << read.error << "\n";
+      return 2;
+    }
+    if (!sink.error().empty()) {
+      err << "plateau analyze: " << sink.error() << "\n";
+      return 2;
+    }
+    summary.bad_lines = parser.bad_lines();
+    summary.unterminated_last_line = parser.pending_bytes() > 0;
+    result.files.push_back(std::move(summary));
+  }
+  if (!source) {
+    err << "plateau analyze: no data rows in " << options.files.front()
+        << (options.files.size() > 1 ? " or the other files" : "") << "\n";
+    return 2;
+  }
+  if (source->statistics().empty()) {
+    err << "plateau analyze: nothing to estimate (--means none and no other statistic asked)\n";
+    return 2;
+  }
+  if (source->gate().current_overlap().samples > 0) {
+    const TimeOrderGate::Overlap& o = source->gate().current_overlap();
+    result.notes.push_back("restart overlap: the last " + std::to_string(o.samples) +
+                           " rows (times " + FormatValue(o.first_time) + " to " +
+                           FormatValue(o.last_time) + ") were not after earlier rows; skipped");
+  }
+  result.columns = source->columns();
+  result.time_column = source->columns()[source->time_index()];
+  for (const Statistic& statistic : source->statistics()) {
+    result.estimates.push_back(statistic.Evaluate(options.evaluation));
+  }
+  result.statistic_columns = source->statistic_columns();
+  out << (options.json ? FormatAnalysisJson(result) : FormatAnalysisTable(result));
+  return 0;
+}
+
+}  // namespace plateau

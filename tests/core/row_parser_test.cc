@@ -1,0 +1,132 @@
+#include "core/row_parser.h"
+
+#include <gtest/gtest.h>
+
+#include <string>
+#include <vector>
+
+namespace plateau {
+namespace {
+
+struct Collected : RowSink {
+  std::vector<std::string> names;
+  std::vector<std::vector<double>> rows;
+  std::vector<std::uint64_t> row_lines;
+  std::vector<std::string> bad;
+  void OnColumns(const std::vector<std::string>& n) override { names = n; }
+  void OnRow(std::uint64_t line, const double* values) override {
+    rows.emplace_back(values, values + names.size());
+    row_lines.push_back(line);
+  }
+  void OnBadLine(std::uint64_t line, std::string_view reason) override {
+    bad.push_back(std::to_string(line) + ": " + std::string(reason));
+  }
+};
+
+Collected Parse(const std::string& text) {
+  RowParser parser;
+  Collected sink;
+  parser.Feed(text, sink);
+  return sink;
+}
+
+TEST(RowParser, AnySeparatorAndHeaderFromTheLastCommentLine) {
+  const Collected c = Parse(
+      "# channel probe, invented case\n"
+      "# time  u  v\n"
+      "#\n"
+      "0.1 1.5 -2\n"
+      "0.2,1.25,-1\n"
+      "0.3;1e-1;+3\n"
+      "0.4\t2.0D+00\t1\n");
+  EXPECT_EQ(c.names, (std::vector<std::string>{"time", "u", "v"}));
+  ASSERT_EQ(c.rows.size(), 4u);
+  EXPECT_EQ(c.rows[1], (std::vector<double>{0.2, 1.25, -1}));
+  EXPECT_EQ(c.rows[2], (std::vector<double>{0.3, 0.1, 3}));
+  EXPECT_EQ(c.rows[3], (std::vector<double>{0.4, 2.0, 1}));  // Fortran D exponent
+  EXPECT_TRUE(c.bad.empty());
+}
+
+TEST(RowParser, CsvFirstLineOfNamesWithoutHash) {
+  const Collected c = Parse("t,Cd,Cl\r\n0,1.2,0.1\r\n1,1.3,-0.1\r\n");
+  EXPECT_EQ(c.names, (std::vector<std::string>{"t", "Cd", "Cl"}));
+  EXPECT_EQ(c.rows.size(), 2u);
+}
+
+TEST(RowParser, VectorGroupsExpandAndTakeIndexedNames) {
+  const Collected c = Parse("# Time U p\n0.5 (1 2 3) 7\n");
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "U[0]", "U[1]", "U[2]", "p"}));
+  EXPECT_EQ(c.rows[0], (std::vector<double>{0.5, 1, 2, 3, 7}));
+  const Collected named = Parse("# t (ux uy uz)\n0.5 (1 2 3)\n");
+  EXPECT_EQ(named.names, (std::vector<std::string>{"t", "ux", "uy", "uz"}));
+}
+
+TEST(RowParser, DefaultNamesWhenNoHeaderFits) {
+  const Collected c = Parse("# a comment that is not a header\n1 2 3\n");
+  EXPECT_EQ(c.names, (std::vector<std::string>{"col1", "col2", "col3"}));
+}
+
+TEST(RowParser, BadLinesAreSkippedCountedAndSayWhy) {
+  RowParser parser;
+  Collected c;
+  parser.Feed("# t u\n0 1\n1 abc\n2 nan\n3 1 2\n4 inf\n5 1e999\n6 2\n", c);
+  EXPECT_EQ(c.rows.size(), 2u);
+  EXPECT_EQ(parser.bad_lines(), 5u);
+  ASSERT_EQ(c.bad.size(), 5u);
+  EXPECT_EQ(c.bad[0], "3: value 2 (u): 'abc' is not a number");
+  EXPECT_EQ(c.bad[1], "4: value 2 (u): 'nan' is not a finite number");
+  EXPECT_EQ(c.bad[2], "5: expected 2 values, found 3");
+  EXPECT_EQ(c.bad[3], "6: value 2 (u): 'inf' is not a finite number");
+  EXPECT_EQ(c.bad[4], "7: value 2 (u): '1e999' is out of the range of a double");
+  EXPECT_EQ(c.row_lines, (std::vector<std::uint64_t>{2, 8}));
+}
+
+TEST(RowParser, PartialLastLineWaitsForItsNewline) {
+  RowParser parser;
+  Collected c;
+  parser.Feed("# t u\n0 1\n1 2", c);
+  EXPECT_EQ(c.rows.size(), 1u);
+  EXPECT_EQ(parser.pending_bytes(), 3u);
+  EXPECT_EQ(parser.consumed_bytes(), 10u);
+  parser.Feed(".5\n", c);
+  ASSERT_EQ(c.rows.size(), 2u);
+  EXPECT_EQ(c.rows[1], (std::vector<double>{1, 2.5}));
+  EXPECT_EQ(parser.consumed_bytes(), 16u);
+}
+
+TEST(RowParser, ByteByByteFeedingGivesTheSameRows) {
+  const std::string text = "# t u v\n0 1 2\n\n1,(2 3)\n# mid comment\n2 3 4\n";
+  const Collected whole = Parse(text);
+  RowParser parser;
+  Collected pieces;
+  for (char ch : text) parser.Feed(std::string_view(&ch, 1), pieces);
+  EXPECT_EQ(pieces.rows, whole.rows);
+  EXPECT_EQ(pieces.row_lines, whole.row_lines);
+  EXPECT_EQ(parser.consumed_bytes(), text.size());
+}
+
+TEST(RowParser, EndlessLineIsBoundedAndSkipped) {
+  RowParser parser;
+  Collected c;
+  parser.Feed("# t u\n0 1\n", c);
+  const std::string junk(1 << 20, 'x');
+  for (int i = 0; i < 5; ++i) parser.Feed(junk, c);
+  EXPECT_LE(parser.pending_bytes(), 5u << 20);
+  parser.Feed("\n1 2\n", c);
+  EXPECT_EQ(c.rows.size(), 2u);
+  EXPECT_EQ(parser.bad_lines(), 1u);
+  EXPECT_EQ(parser.consumed_bytes(), 10u + (5u << 20) + 1u + 4u);
+}
+
+TEST(RowParser, ResumedParserContinuesLineNumbersAndLayout) {
+  RowParser parser;
+  Collected c;
+  parser.Resume({"t", "u"}, 41, 1000);
+  parser.Feed("7 8\nbad\n", c);
+  EXPECT_EQ(c.row_lines, (std::vector<std::uint64_t>{42}));
+  EXPECT_EQ(c.bad, (std::vector<std::string>{"43: value 1 (t): 'bad' is not a number"}));
+  EXPECT_EQ(parser.consumed_bytes(), 1008u);
+}
+
+}  // namespace
+}  // namespace plateau
