@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <complex>
+#include <limits>
 
 #include "core/fft.h"
 
@@ -79,6 +80,32 @@ double ParzenLagWindowSigma2(const AutocorrelationResult& r, int window) {
     sum += 2.0 * w * r.rho[k];
   }
   return r.gamma0 * sum;
+}
+
+double GeyerInitialMonotoneSigma2(const std::vector<double>& series, double* gamma0) {
+  const std::size_t n = series.size();
+  if (n < 2) return std::nan("");
+  double mean = 0.0;
+  for (double v : series) mean += v;
+  mean /= static_cast<double>(n);
+  std::vector<double> centred(n);
+  for (std::size_t t = 0; t < n; ++t) centred[t] = series[t] - mean;
+  const auto lag = [&](std::size_t k) {
+    double sum = 0.0;
+    for (std::size_t t = 0; t + k < n; ++t) sum += centred[t] * centred[t + k];
+    return sum / static_cast<double>(n);
+  };
+  const double g0 = lag(0);
+  if (gamma0 != nullptr) *gamma0 = g0;
+  double previous = std::numeric_limits<double>::infinity();
+  double sum_monotone = 0.0;
+  for (std::size_t m = 0; 2 * m + 1 < n; ++m) {
+    const double pair = (m == 0 ? g0 : lag(2 * m)) + lag(2 * m + 1);
+    if (pair <= 0.0) break;
+    previous = std::min(previous, pair);
+    sum_monotone += previous;
+  }
+  return -g0 + 2.0 * sum_monotone;
 }
 
 std::vector<double> Autocovariance(const std::vector<double>& series) {

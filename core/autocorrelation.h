@@ -40,6 +40,11 @@ double ParzenLagWindowSigma2(const AutocorrelationResult& r, int window);
 AutocorrelationResult AnalyseAutocorrelation(const std::vector<double>& series,
                                              double sokal_c = 5.0);
 
+// Geyer's initial monotone sigma^2 by direct lag sums, computed only as far as the sequence goes:
+// O(n m) for m pairs, far cheaper than an FFT when the series is nearly white (merged blocks). Also
+// returns gamma_0 through *gamma0 when not null. Same value as AnalyseAutocorrelation's.
+double GeyerInitialMonotoneSigma2(const std::vector<double>& series, double* gamma0 = nullptr);
+
 // Biased autocovariances gamma_0 .. gamma_{n-1} of the demeaned series, by FFT with zero padding.
 std::vector<double> Autocovariance(const std::vector<double>& series);
 

@@ -17,21 +17,21 @@ std::size_t PowerOfTwoAtLeast(std::size_t n) {
 BlockHistory::BlockHistory(MomentLayout layout, std::size_t capacity)
     : layout_(std::move(layout)),
       capacity_(PowerOfTwoAtLeast(capacity)),
-      blocks_(capacity_ * layout_.stride()),
-      open_(layout_.stride()),
+      blocks_((capacity_ + 1) * layout_.stride()),
       last_time_(std::numeric_limits<double>::quiet_NaN()) {
-  layout_.Clear(open_.data());
+  layout_.Clear(OpenSlot());
 }
 
 void BlockHistory::Add(double time, const double* values) {
-  layout_.AddSample(open_.data(), time, values);
+  // The open block is filled in place in the slot after the closed ones: closing it is a count.
+  double* open = OpenSlot();
+  layout_.AddSample(open, time, values);
   ++sample_count_;
   last_time_ = time;
-  if (layout_.Count(open_.data()) < static_cast<double>(block_length_)) return;
-  std::copy(open_.begin(), open_.end(), blocks_.begin() + block_count_ * layout_.stride());
+  if (layout_.Count(open) < static_cast<double>(block_length_)) return;
   ++block_count_;
-  layout_.Clear(open_.data());
   if (block_count_ == capacity_) MergeNeighbourPairs();
+  layout_.Clear(OpenSlot());
 }
 
 void BlockHistory::MergeNeighbourPairs() {
@@ -45,15 +45,16 @@ void BlockHistory::MergeNeighbourPairs() {
 
 std::vector<double> BlockHistory::SaveState() const {
   std::vector<double> state;
-  state.reserve(6 + open_.size() + block_count_ * layout_.stride());
+  const std::size_t stride = layout_.stride();
+  state.reserve(6 + stride * (1 + block_count_));
   state.push_back(static_cast<double>(capacity_));
   state.push_back(static_cast<double>(layout_.stride()));
   state.push_back(static_cast<double>(block_count_));
   state.push_back(static_cast<double>(block_length_));
   state.push_back(static_cast<double>(sample_count_));
   state.push_back(last_time_);
-  state.insert(state.end(), open_.begin(), open_.end());
-  state.insert(state.end(), blocks_.begin(), blocks_.begin() + block_count_ * layout_.stride());
+  state.insert(state.end(), open_block(), open_block() + stride);
+  state.insert(state.end(), blocks_.begin(), blocks_.begin() + block_count_ * stride);
   return state;
 }
 
@@ -69,8 +70,8 @@ bool BlockHistory::RestoreState(const std::vector<double>& state) {
   block_length_ = static_cast<std::uint64_t>(state[3]);
   sample_count_ = static_cast<std::uint64_t>(state[4]);
   last_time_ = state[5];
-  std::copy(state.begin() + 6, state.begin() + 6 + stride, open_.begin());
   std::copy(state.begin() + 6 + stride, state.end(), blocks_.begin());
+  std::copy(state.begin() + 6, state.begin() + 6 + stride, OpenSlot());
   return true;
 }
 

@@ -31,7 +31,7 @@ class BlockHistory {
   std::uint64_t block_length() const { return block_length_; }
   const double* block(std::size_t i) const { return blocks_.data() + i * layout_.stride(); }
   // The block being filled: fewer than block_length() samples, possibly none.
-  const double* open_block() const { return open_.data(); }
+  const double* open_block() const { return block(block_count_); }
   std::uint64_t sample_count() const { return sample_count_; }
   double last_time() const { return last_time_; }
 
@@ -43,11 +43,12 @@ class BlockHistory {
 
  private:
   void MergeNeighbourPairs();
+  double* OpenSlot() { return blocks_.data() + block_count_ * layout_.stride(); }
 
   MomentLayout layout_;
   std::size_t capacity_;
-  std::vector<double> blocks_;  // capacity_ * stride, block_count_ of them in use
-  std::vector<double> open_;
+  // (capacity_ + 1) * stride: block_count_ closed blocks, then the open block.
+  std::vector<double> blocks_;
   std::size_t block_count_ = 0;
   std::uint64_t block_length_ = 1;
   std::uint64_t sample_count_ = 0;

@@ -1,10 +1,33 @@
 #include "core/fft.h"
 
+#include <array>
+#include <bit>
 #include <cmath>
+#include <mutex>
 #include <numbers>
 #include <utility>
 
 namespace plateau {
+
+namespace {
+
+// exp(-2 pi i k / n) for k < n/2, from cos/sin of each angle (no rounding accumulated by a
+// recurrence), computed once per power of two and shared: evaluations repeat the same sizes.
+const std::vector<std::complex<double>>& ForwardTwiddles(std::size_t n) {
+  static std::array<std::vector<std::complex<double>>, 64> tables;
+  static std::array<std::once_flag, 64> made;
+  const int k = std::countr_zero(n);
+  std::call_once(made[k], [&] {
+    tables[k].resize(n / 2);
+    for (std::size_t j = 0; j < n / 2; ++j) {
+      const double angle = -2.0 * std::numbers::pi * static_cast<double>(j) / static_cast<double>(n);
+      tables[k][j] = {std::cos(angle), std::sin(angle)};
+    }
+  });
+  return tables[k];
+}
+
+}  // namespace
 
 bool Fft(std::vector<std::complex<double>>& data, bool inverse) {
   const std::size_t n = data.size();
@@ -16,20 +39,18 @@ bool Fft(std::vector<std::complex<double>>& data, bool inverse) {
     j ^= bit;
     if (i < j) std::swap(data[i], data[j]);
   }
-  // Twiddles computed directly from cos/sin of each angle, once per call: no accumulated rounding
-  // from a recurrence, and n/2 trigonometric calls rather than n log n.
-  const double sign = inverse ? 1.0 : -1.0;
-  std::vector<std::complex<double>> twiddle(n / 2);
-  for (std::size_t k = 0; k < n / 2; ++k) {
-    const double angle = sign * 2.0 * std::numbers::pi * static_cast<double>(k) / n;
-    twiddle[k] = {std::cos(angle), std::sin(angle)};
-  }
+  const std::vector<std::complex<double>>& twiddle = ForwardTwiddles(n);
   for (std::size_t span = 2; span <= n; span <<= 1) {
     const std::size_t half = span / 2;
     const std::size_t step = n / span;
     for (std::size_t start = 0; start < n; start += span) {
       for (std::size_t k = 0; k < half; ++k) {
-        const std::complex<double> odd = twiddle[k * step] * data[start + k + half];
+        // Plain real arithmetic: std::complex's operator* carries C99 Annex G NaN recovery.
+        const double wr = twiddle[k * step].real();
+        const double wi = inverse ? -twiddle[k * step].imag() : twiddle[k * step].imag();
+        const std::complex<double> x = data[start + k + half];
+        const std::complex<double> odd(wr * x.real() - wi * x.imag(),
+                                       wr * x.imag() + wi * x.real());
         data[start + k + half] = data[start + k] - odd;
         data[start + k] += odd;
       }

@@ -17,10 +17,10 @@ PartMean Summarise(const std::vector<double>& part) {
   PartMean p;
   for (double v : part) p.mean += v;
   p.mean /= static_cast<double>(part.size());
-  const AutocorrelationResult acf = AnalyseAutocorrelation(part);
+  double gamma0 = 0.0;
+  const double monotone = GeyerInitialMonotoneSigma2(part, &gamma0);
   // A negative sequence sum (strong anticorrelation in a short part) falls back to independence.
-  const double sigma2 =
-      acf.sigma2_initial_monotone > 0.0 ? acf.sigma2_initial_monotone : acf.gamma0;
+  const double sigma2 = monotone > 0.0 ? monotone : gamma0;
   p.variance_of_mean = sigma2 / static_cast<double>(part.size());
   return p;
 }

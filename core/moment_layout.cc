@@ -9,6 +9,12 @@ namespace {
 
 constexpr int kMaxSums = 84;  // multi-indices of 3 signals up to order 6: C(9, 3)
 
+double IntegerPower(double x, int n) {
+  double result = 1.0;
+  for (int i = 0; i < n; ++i) result *= x;
+  return result;
+}
+
 double Binomial(int n, int k) {
   double result = 1.0;
   for (int i = 1; i <= k; ++i) result = result * (n - k + i) / i;
@@ -79,23 +85,21 @@ void MomentLayout::ShiftSums(double* sums, const double* delta) const {
   }
 }
 
-void MomentLayout::AddSampleOrderTwoSingle(double* summary, double time, double value) const {
-  // Welford's update (Welford 1962), the one-signal order-two case of the shift below.
-  double& mean = summary[1];
-  double& count = summary[2];
-  double& sum_sq = summary[4];
-  if (count == 0.0) summary[0] = time;
-  count += 1.0;
-  const double delta = value - mean;
-  mean += delta / count;
-  sum_sq += delta * (value - mean);
+void MomentLayout::MergeOrderTwoSingle(const double* a, const double* b, double* out) const {
+  // Chan, Golub & LeVeque (1979): M2 = M2a + M2b + delta^2 na nb / n, the order-two case of Merge.
+  const double count_a = a[2], count_b = b[2];
+  const double total = count_a + count_b;
+  const double delta = b[1] - a[1];
+  const double first_time = a[0];
+  const double sum_sq = a[4] + b[4] + delta * delta * (count_a * count_b / total);
+  out[0] = first_time;
+  out[1] = a[1] + delta * (count_b / total);
+  out[2] = total;
+  out[3] = 0.0;
+  out[4] = sum_sq;
 }
 
-void MomentLayout::AddSample(double* summary, double time, const double* values) const {
-  if (signals_ == 1 && max_order_ == 2) {
-    AddSampleOrderTwoSingle(summary, time, values[0]);
-    return;
-  }
+void MomentLayout::AddSampleGeneral(double* summary, double time, const double* values) const {
   double* means = summary + 1;
   double* sums = summary + 1 + signals_;
   const double count = sums[0];
@@ -137,6 +141,10 @@ void MomentLayout::Merge(const double* a, const double* b, double* out) const {
     if (out != b) std::copy(b, b + n, out);
     return;
   }
+  if (signals_ == 1 && max_order_ == 2) {
+    MergeOrderTwoSingle(a, b, out);
+    return;
+  }
   double first[kMaxSums + 1 + kMaxSignals];
   double second[kMaxSums + 1 + kMaxSignals];
   std::copy(a, a + n, first);
@@ -174,6 +182,10 @@ double MomentLayout::MomentAbout(const double* summary, const Powers& alpha,
                                  const double* centre) const {
   const double count = Count(summary);
   if (count == 0.0 || SumIndex(alpha) < 0) return std::numeric_limits<double>::quiet_NaN();
+  for (int i = 0; i < signals_; ++i) {
+    // A first moment about a centre is the mean's distance from it: the common case (every mean).
+    if (alpha[i] == 1 && alpha[0] + alpha[1] + alpha[2] == 1) return summary[1 + i] - centre[i];
+  }
   const double* sums = summary + 1 + signals_;
   double delta[kMaxSignals] = {0.0, 0.0, 0.0};
   for (int i = 0; i < signals_; ++i) delta[i] = summary[1 + i] - centre[i];
@@ -181,9 +193,9 @@ double MomentLayout::MomentAbout(const double* summary, const Powers& alpha,
   for (int b0 = 0; b0 <= alpha[0]; ++b0) {
     for (int b1 = 0; b1 <= alpha[1]; ++b1) {
       for (int b2 = 0; b2 <= alpha[2]; ++b2) {
-        const double weight = Binomial(alpha[0], b0) * std::pow(delta[0], alpha[0] - b0) *
-                              Binomial(alpha[1], b1) * std::pow(delta[1], alpha[1] - b1) *
-                              Binomial(alpha[2], b2) * std::pow(delta[2], alpha[2] - b2);
+        const double weight = Binomial(alpha[0], b0) * IntegerPower(delta[0], alpha[0] - b0) *
+                              Binomial(alpha[1], b1) * IntegerPower(delta[1], alpha[1] - b1) *
+                              Binomial(alpha[2], b2) * IntegerPower(delta[2], alpha[2] - b2);
         total += weight * sums[SumIndex({b0, b1, b2})];
       }
     }

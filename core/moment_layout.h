@@ -37,7 +37,20 @@ class MomentLayout {
   // Sets a summary to the empty state (count 0).
   void Clear(double* summary) const;
   // Adds one sample of all d signals at `time`. Values must be finite (the parser guarantees it).
-  void AddSample(double* summary, double time, const double* values) const;
+  // The one-signal order-two case (every mean statistic) is Welford's update (Welford 1962),
+  // inline because it runs once per value of every probe file.
+  void AddSample(double* summary, double time, const double* values) const {
+    if (signals_ == 1 && max_order_ == 2) {
+      double& count = summary[2];
+      if (count == 0.0) summary[0] = time;
+      count += 1.0;
+      const double delta = values[0] - summary[1];
+      summary[1] += delta / count;
+      summary[4] += delta * (values[0] - summary[1]);
+      return;
+    }
+    AddSampleGeneral(summary, time, values);
+  }
   // out = a merged with b, where b's samples follow a's. `out` may alias `a` or `b`.
   void Merge(const double* a, const double* b, double* out) const;
 
@@ -62,7 +75,8 @@ class MomentLayout {
   int SumIndex(const Powers& alpha) const;
   // Rewrites the sums `sums` (about the current mean) as sums about mean - delta.
   void ShiftSums(double* sums, const double* delta) const;
-  void AddSampleOrderTwoSingle(double* summary, double time, double value) const;
+  void AddSampleGeneral(double* summary, double time, const double* values) const;
+  void MergeOrderTwoSingle(const double* a, const double* b, double* out) const;
 
   int signals_;
   int max_order_;

@@ -23,6 +23,17 @@ TEST(Autocorrelation, FftAutocovarianceEqualsDirectSums) {
   }
 }
 
+TEST(Autocorrelation, DirectGeyerSumEqualsTheFftOne) {
+  for (double phi : {0.0, 0.6, 0.95}) {
+    const std::vector<double> x = testing::Ar1(3000, phi, 22, 1.0);
+    const AutocorrelationResult r = AnalyseAutocorrelation(x);
+    double gamma0 = 0.0;
+    EXPECT_NEAR(GeyerInitialMonotoneSigma2(x, &gamma0), r.sigma2_initial_monotone,
+                1e-10 * r.sigma2_initial_monotone);
+    EXPECT_NEAR(gamma0, r.gamma0, 1e-12 * r.gamma0);
+  }
+}
+
 TEST(Autocorrelation, ConstantSeriesHasZeroVarianceAndUnitTau) {
   const AutocorrelationResult r = AnalyseAutocorrelation(std::vector<double>(100, 3.25));
   EXPECT_EQ(r.gamma0, 0.0);
