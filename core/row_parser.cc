@@ -163,7 +163,10 @@ void RowParser::Feed(std::string_view bytes, RowSink& sink) {
 }
 
 void RowParser::Resume(std::vector<std::string> names, std::uint64_t lines,
-                       std::uint64_t consumed_bytes) {
+                       std::uint64_t consumed_bytes, std::uint64_t rows,
+                       std::uint64_t bad_lines) {
+  rows_ = rows;
+  bad_lines_ = bad_lines;
   names_ = std::move(names);
   column_count_ = names_.size();
   values_.reserve(column_count_);

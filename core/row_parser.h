@@ -45,7 +45,8 @@ class RowParser {
   std::size_t pending_bytes() const { return pending_size_; }
 
   // Resumes a stream at a line boundary (after a restart): the layout and counters as they were.
-  void Resume(std::vector<std::string> names, std::uint64_t lines, std::uint64_t consumed_bytes);
+  void Resume(std::vector<std::string> names, std::uint64_t lines, std::uint64_t consumed_bytes,
+              std::uint64_t rows = 0, std::uint64_t bad_lines = 0);
 
  private:
   void ParseLine(std::string_view line, RowSink& sink);

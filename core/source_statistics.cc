@@ -38,21 +38,22 @@ std::optional<SourceStatistics> SourceStatistics::Make(
     return std::nullopt;
   }
   SourceStatistics source(std::move(columns), time_index);
-  for (const StatisticRequest& request : requests) {
+  for (std::size_t r = 0; r < requests.size(); ++r) {
+    const StatisticRequest& request = requests[r];
     std::vector<int> positions;
+    std::string problem;
     for (const std::string& column : request.columns) {
       const int position = ResolveColumn(source.columns_, column);
-      if (position < 0) {
-        *error = "no column '" + column + "' (columns: " + KnownColumns(source.columns_) + ")";
-        return std::nullopt;
+      if (position < 0 && problem.empty()) {
+        problem = "no column '" + column + "' (columns: " + KnownColumns(source.columns_) + ")";
       }
       positions.push_back(position);
     }
-    std::string formula_error;
-    auto formula = StatisticFormula::Make(request.kind, positions, &formula_error);
+    std::optional<StatisticFormula> formula;
+    if (problem.empty()) formula = StatisticFormula::Make(request.kind, positions, &problem);
     if (!formula) {
-      *error = formula_error;
-      return std::nullopt;
+      source.problems_.push_back({r, problem});
+      continue;
     }
     std::vector<std::string> names;
     for (int p : positions) names.push_back(source.columns_[p]);
@@ -60,6 +61,7 @@ std::optional<SourceStatistics> SourceStatistics::Make(
         request.name.empty() ? DefaultStatisticName(request.kind, names) : request.name;
     source.statistics_.emplace_back(name, *formula, capacity);
     source.columns_of_.push_back(std::move(names));
+    source.request_of_.push_back(r);
   }
   return source;
 }

@@ -17,12 +17,21 @@ namespace plateau {
 class SourceStatistics {
  public:
   // Resolves `time_column` (a column name, or a 1-based column number; empty means the first
-  // column) and every request's columns against `columns`. On an unknown column or a wrong column
-  // count returns nullopt and sets *error to a message naming the column and listing the known ones.
+  // column) and every request's columns against `columns`. An unknown time column returns nullopt
+  // with *error set. A request with an unknown column or a wrong column count gets no statistic: its
+  // message (naming the column and listing the known ones) is in problems(), by request index.
   static std::optional<SourceStatistics> Make(std::vector<std::string> columns,
                                               const std::string& time_column,
                                               const std::vector<StatisticRequest>& requests,
                                               std::size_t capacity, std::string* error);
+
+  struct Problem {
+    std::size_t request;
+    std::string message;
+  };
+  const std::vector<Problem>& problems() const { return problems_; }
+  // Index of the request each statistic was made from, in the order of statistics().
+  const std::vector<std::size_t>& request_of() const { return request_of_; }
 
   // A mean request for every column but the time column: what `analyze` does by default.
   static std::vector<StatisticRequest> MeansOfEveryColumn(const std::vector<std::string>& columns,
@@ -49,6 +58,8 @@ class SourceStatistics {
   TimeOrderGate gate_;
   std::vector<Statistic> statistics_;
   std::vector<std::vector<std::string>> columns_of_;
+  std::vector<std::size_t> request_of_;
+  std::vector<Problem> problems_;
 };
 
 // Position of `column` (a name, else a 1-based number) in `columns`; -1 when neither matches.

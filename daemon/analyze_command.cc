@@ -198,7 +198,11 @@ class AnalyzeSink : public RowSink {
     std::string error;
     source_ = SourceStatistics::Make(names, options_.time_column, BuildRequests(options_, names),
                                      options_.capacity, &error);
-    if (!source_) error_ = summary_.path + ": " + error;
+    if (!source_) {
+      error_ = summary_.path + ": " + error;
+    } else if (!source_->problems().empty()) {
+      error_ = summary_.path + ": " + source_->problems().front().message;
+    }
   }
 
   void OnRow(std::uint64_t, const double* values) override {

@@ -104,6 +104,11 @@ void JsonWriter::Bool(bool value) {
   text_ += value ? "true" : "false";
 }
 
+void JsonWriter::Raw(std::string_view json) {
+  BeforeValue();
+  text_ += json;
+}
+
 void JsonWriter::Null() {
   BeforeValue();
   text_ += "null";

@@ -24,6 +24,8 @@ class JsonWriter {
   void Integer(std::int64_t value);
   void Bool(bool value);
   void Null();
+  // A value that is already a JSON document (e.g. an object read back from the store).
+  void Raw(std::string_view json);
 
   // Shorthands for a key and its value.
   void Field(std::string_view key, std::string_view value);

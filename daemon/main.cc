@@ -5,6 +5,9 @@
 #include <vector>
 
 #include "daemon/analyze_command.h"
+#include "daemon/init_command.h"
+#include "daemon/status_command.h"
+#include "daemon/watch_command.h"
 
 namespace {
 
@@ -15,6 +18,11 @@ void PrintUsage(std::ostream& out) {
          "Convergence monitor for the time averages of scale-resolving turbulence simulations.\n\n"
          "commands:\n"
          "  analyze FILE...   estimate time averages and their uncertainty from probe files\n"
+         "  init GLOB...      write a starter config for the probe files found\n"
+         "  validate CONFIG   check a config without starting anything\n"
+         "  watch CONFIG      follow a running simulation (the daemon)\n"
+         "  status [RUN]      every statistic as last evaluated\n"
+         "  check [RUN]       stop or continue, as an exit status (0 stop, 1 continue, 2 unknown)\n"
          "  help [COMMAND]    this text, or a command's own\n"
          "  version           the program version\n\n"
          "Run 'plateau COMMAND --help' for a command's options.\n";
@@ -31,13 +39,29 @@ int main(int argc, char** argv) {
   const std::string& command = args[0];
   const std::vector<std::string> rest(args.begin() + 1, args.end());
   if (command == "analyze") return plateau::RunAnalyzeCommand(rest, std::cout, std::cerr);
+  if (command == "init") return plateau::RunInitCommand(rest, std::cout, std::cerr);
+  if (command == "validate") return plateau::RunValidateCommand(rest, std::cout, std::cerr);
+  if (command == "watch") return plateau::RunWatchCommand(rest, std::cout, std::cerr);
+  if (command == "status") return plateau::RunStatusCommand(rest, std::cout, std::cerr);
+  if (command == "check") return plateau::RunCheckCommand(rest, std::cout, std::cerr);
   if (command == "version" || command == "--version") {
     std::cout << "plateau " << kVersion << "\n";
     return 0;
   }
   if (command == "help" || command == "--help" || command == "-h") {
-    if (!rest.empty() && rest[0] == "analyze") {
+    const std::string topic = rest.empty() ? "" : rest[0];
+    if (topic == "analyze") {
       std::cout << plateau::AnalyzeUsage();
+    } else if (topic == "init") {
+      std::cout << plateau::InitUsage();
+    } else if (topic == "validate") {
+      std::cout << plateau::ValidateUsage();
+    } else if (topic == "watch") {
+      std::cout << plateau::WatchUsage();
+    } else if (topic == "status") {
+      std::cout << plateau::StatusUsage();
+    } else if (topic == "check") {
+      std::cout << plateau::CheckUsage();
     } else {
       PrintUsage(std::cout);
     }

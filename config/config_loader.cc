@@ -1,0 +1,419 @@
+#include "config/config_loader.h"
+
+#include <yaml-cpp/yaml.h>
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+namespace plateau {
+namespace {
+
+namespace fs = std::filesystem;
+
+std::string Join(const std::vector<std::string>& items, const std::string& last = "or") {
+  std::string out;
+  for (std::size_t i = 0; i < items.size(); ++i) {
+    if (i > 0) out += (i + 1 == items.size()) ? " " + last + " " : ", ";
+    out += items[i];
+  }
+  return out;
+}
+
+// Walks the YAML tree into a RunConfig, collecting every problem with its place.
+class Loader {
+ public:
+  Loader(std::string file, std::vector<ConfigError>* errors)
+      : file_(std::move(file)), errors_(errors) {}
+
+  std::optional<RunConfig> Load(const YAML::Node& root);
+
+ private:
+  void Error(const YAML::Node& at, const std::string& message) {
+    const YAML::Mark mark = at.Mark();
+    errors_->push_back({file_, mark.is_null() ? 0 : mark.line + 1,
+                        mark.is_null() ? 0 : mark.column + 1, message});
+  }
+
+  // Reports every key not in `allowed`, and repeated keys.
+  void CheckKeys(const YAML::Node& map, const std::vector<std::string>& allowed,
+                 const std::string& where) {
+    std::set<std::string> seen;
+    for (auto it = map.begin(); it != map.end(); ++it) {
+      const std::string key = it->first.Scalar();
+      if (std::find(allowed.begin(), allowed.end(), key) == allowed.end()) {
+        Error(it->first, "unknown key '" + key + "' in " + where + "; expected one of " +
+                             Join(allowed));
+      } else if (!seen.insert(key).second) {
+        Error(it->first, "key '" + key + "' appears twice in " + where);
+      }
+    }
+  }
+
+  std::optional<std::string> Text(const YAML::Node& node, const std::string& what) {
+    if (!node.IsScalar() || node.Scalar().empty()) {
+      Error(node, what + " must be a text value");
+      return std::nullopt;
+    }
+    return node.Scalar();
+  }
+
+  // A number within [low, high] (exclusive where `open`); the message names the key and the range.
+  std::optional<double> Number(const YAML::Node& node, const std::string& what, double low,
+                               double high, bool open_low, const std::string& expected) {
+    double value = 0.0;
+    const std::string text = node.IsScalar() ? node.Scalar() : "";
+    const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+    const bool parsed = node.IsScalar() && ec == std::errc() && ptr == text.data() + text.size() &&
+                        std::isfinite(value);
+    const bool in_range = parsed && (open_low ? value > low : value >= low) && value <= high;
+    if (!in_range) {
+      Error(node, what + " must be " + expected + ", got '" + (node.IsScalar() ? text : "a list") +
+                      "'");
+      return std::nullopt;
+    }
+    return value;
+  }
+
+  std::vector<std::string> TextList(const YAML::Node& node, const std::string& what) {
+    std::vector<std::string> items;
+    if (node.IsScalar()) {
+      items.push_back(node.Scalar());
+    } else if (node.IsSequence()) {
+      for (const YAML::Node& item : node) {
+        if (auto t = Text(item, what)) items.push_back(*t);
+      }
+    } else {
+      Error(node, what + " must be a name or a list of names");
+    }
+    return items;
+  }
+
+  std::string Resolve(const std::string& path) const {
+    const fs::path p(path);
+    return p.is_absolute() ? p.string() : (folder_ / p).lexically_normal().string();
+  }
+
+  void LoadSettings(const YAML::Node& root, RunConfig& c);
+  void LoadWarmup(const YAML::Node& node, EvaluationOptions& options);
+  std::optional<SourceConfig> LoadSource(const YAML::Node& node);
+  std::optional<StatisticConfig> LoadStatistic(const YAML::Node& node, const RunConfig& c);
+  std::optional<Target> LoadTarget(const YAML::Node& node, double default_confidence);
+
+  std::string file_;
+  fs::path folder_;
+  std::vector<ConfigError>* errors_;
+};
+
+void Loader::LoadWarmup(const YAML::Node& node, EvaluationOptions& options) {
+  if (node.IsScalar() && node.Scalar() == "auto") {
+    options.warmup = WarmupPolicy::kAuto;
+  } else if (node.IsScalar() && node.Scalar() == "none") {
+    options.warmup = WarmupPolicy::kNone;
+  } else if (auto t = Number(node, "warmup", -1e300, 1e300, false,
+                             "auto, none, or a simulated time")) {
+    options.warmup = WarmupPolicy::kFixedTime;
+    options.warmup_time = *t;
+  }
+}
+
+void Loader::LoadSettings(const YAML::Node& root, RunConfig& c) {
+  if (root["run"]) {
+    if (auto name = Text(root["run"], "run")) c.run_name = *name;
+  }
+  if (root["store"]) {
+    if (auto store = Text(root["store"], "store")) c.store_path = Resolve(*store);
+  }
+  const auto seconds = [&](const char* key, double& field) {
+    if (root[key]) {
+      if (auto v = Number(root[key], key, 0.0, 1e7, true, "a number of seconds above 0")) {
+        field = *v;
+      }
+    }
+  };
+  seconds("evaluate_every", c.evaluate_every);
+  seconds("poll_every", c.poll_every);
+  if (root["confidence"]) {
+    if (auto v = Number(root["confidence"], "confidence", 0.0, 0.999999, true,
+                        "a fraction between 0 and 1, such as 0.95")) {
+      c.evaluation.confidence = *v;
+    }
+  }
+  if (root["batches"]) {
+    if (auto v = Number(root["batches"], "batches", 2, 1000, false, "a whole number from 2 to 1000");
+        v && *v == std::floor(*v)) {
+      c.evaluation.batches = static_cast<int>(*v);
+    } else if (v) {
+      Error(root["batches"], "batches must be a whole number from 2 to 1000");
+    }
+  }
+  if (root["warmup"]) LoadWarmup(root["warmup"], c.evaluation);
+  if (root["confirmations"]) {
+    if (auto v = Number(root["confirmations"], "confirmations", 1, 1000, false,
+                        "a whole number of evaluations from 1")) {
+      c.stop_rule.confirmations = static_cast<int>(*v);
+    }
+  }
+  if (root["minimum_effective_samples"]) {
+    if (auto v = Number(root["minimum_effective_samples"], "minimum_effective_samples", 0, 1e15,
+                        false, "a number of samples, 0 or more")) {
+      c.stop_rule.minimum_effective_samples = *v;
+      c.evaluation.minimum_effective_samples = *v;
+    }
+  }
+  if (root["drift_p_value"]) {
+    if (auto v = Number(root["drift_p_value"], "drift_p_value", 0.0, 0.5, true,
+                        "a probability above 0 and at most 0.5, such as 0.001")) {
+      c.evaluation.drift_p_value = *v;
+    }
+  }
+  if (root["blocks"]) {
+    if (auto v = Number(root["blocks"], "blocks", 64, 1 << 24, false,
+                        "a whole number of blocks from 64")) {
+      c.blocks = static_cast<std::size_t>(*v);
+    }
+  }
+}
+
+std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
+  if (!node.IsMap()) {
+    Error(node, "a source must be a map with name and files");
+    return std::nullopt;
+  }
+  CheckKeys(node, {"name", "files", "time_column", "columns"}, "a source");
+  SourceConfig s;
+  bool ok = true;
+  if (!node["name"]) {
+    Error(node, "a source needs a name");
+    ok = false;
+  } else if (auto n = Text(node["name"], "name")) {
+    s.name = *n;
+  } else {
+    ok = false;
+  }
+  if (!node["files"]) {
+    Error(node, "source '" + s.name + "' needs files: a path or glob of its probe files");
+    ok = false;
+  } else if (auto f = Text(node["files"], "files")) {
+    s.files = Resolve(*f);
+  } else {
+    ok = false;
+  }
+  if (node["time_column"]) {
+    if (auto t = Text(node["time_column"], "time_column")) s.time_column = *t;
+  }
+  if (node["columns"]) s.columns = TextList(node["columns"], "columns");
+  return ok ? std::optional<SourceConfig>(s) : std::nullopt;
+}
+
+std::optional<Target> Loader::LoadTarget(const YAML::Node& node, double default_confidence) {
+  if (!node.IsMap()) {
+    Error(node, "target must be a map such as {relative: 0.01} or {absolute: 0.002}");
+    return std::nullopt;
+  }
+  CheckKeys(node, {"relative", "absolute", "confidence"}, "a target");
+  Target t;
+  t.confidence = default_confidence;
+  if (node["relative"] && node["absolute"]) {
+    Error(node, "a target takes relative or absolute, not both");
+    return std::nullopt;
+  }
+  if (node["relative"]) {
+    auto v = Number(node["relative"], "relative", 0.0, 1e6, true,
+                    "a fraction of the value above 0, such as 0.01 for 1 %");
+    if (!v) return std::nullopt;
+    t.kind = Target::Kind::kRelative;
+    t.value = *v;
+  } else if (node["absolute"]) {
+    auto v = Number(node["absolute"], "absolute", 0.0, 1e300, true,
+                    "a half-width above 0 in the statistic's units");
+    if (!v) return std::nullopt;
+    t.kind = Target::Kind::kAbsolute;
+    t.value = *v;
+  } else {
+    Error(node, "a target needs relative or absolute");
+    return std::nullopt;
+  }
+  if (node["confidence"]) {
+    auto c = Number(node["confidence"], "confidence", 0.0, 0.999999, true,
+                    "a fraction between 0 and 1, such as 0.95");
+    if (!c) return std::nullopt;
+    t.confidence = *c;
+  }
+  return t;
+}
+
+std::optional<StatisticConfig> Loader::LoadStatistic(const YAML::Node& node, const RunConfig& c) {
+  if (!node.IsMap()) {
+    Error(node, "a statistic must be a map with kind and columns");
+    return std::nullopt;
+  }
+  CheckKeys(node,
+            {"name", "source", "kind", "columns", "column", "target", "minimum_time", "reference"},
+            "a statistic");
+  StatisticConfig s;
+  bool ok = true;
+  const std::vector<std::string> kinds{"mean", "variance", "rms", "covariance", "third_moment",
+                                       "tke"};
+  if (!node["kind"]) {
+    s.request.kind = StatisticKind::kMean;
+  } else if (auto k = Text(node["kind"], "kind")) {
+    if (auto parsed = ParseKind(*k)) {
+      s.request.kind = *parsed;
+    } else {
+      Error(node["kind"], "kind '" + *k + "' is not known; expected " + Join(kinds));
+      ok = false;
+    }
+  }
+  if (node["columns"] && node["column"]) {
+    Error(node, "a statistic takes columns or column, not both");
+    ok = false;
+  }
+  const YAML::Node columns = node["columns"] ? node["columns"] : node["column"];
+  if (!columns) {
+    Error(node, "a statistic needs columns (or column)");
+    ok = false;
+  } else {
+    s.request.columns = TextList(columns, "columns");
+    const int wanted = KindColumnCount(s.request.kind);
+    if (ok && static_cast<int>(s.request.columns.size()) != wanted) {
+      Error(columns, std::string(KindName(s.request.kind)) + " takes " + std::to_string(wanted) +
+                         (wanted == 1 ? " column" : " columns") + ", got " +
+                         std::to_string(s.request.columns.size()));
+      ok = false;
+    }
+  }
+  if (node["name"]) {
+    if (auto n = Text(node["name"], "name")) s.request.name = *n;
+  } else {
+    s.request.name = DefaultStatisticName(s.request.kind, s.request.columns);
+  }
+  if (node["source"]) {
+    if (auto src = Text(node["source"], "source")) s.source = *src;
+  } else if (c.sources.size() == 1) {
+    s.source = c.sources.front().name;
+  } else {
+    Error(node, "statistic '" + s.request.name + "' needs a source (there are several)");
+    ok = false;
+  }
+  if (!s.source.empty() &&
+      std::none_of(c.sources.begin(), c.sources.end(),
+                   [&](const SourceConfig& src) { return src.name == s.source; })) {
+    std::vector<std::string> names;
+    for (const SourceConfig& src : c.sources) names.push_back(src.name);
+    Error(node["source"] ? node["source"] : node,
+          "statistic '" + s.request.name + "' names source '" + s.source +
+              "', which is not defined; sources: " + Join(names, "and"));
+    ok = false;
+  }
+  if (node["target"]) {
+    s.target = LoadTarget(node["target"], c.evaluation.confidence);
+    ok = ok && s.target.has_value();
+  }
+  if (node["minimum_time"]) {
+    auto v = Number(node["minimum_time"], "minimum_time", 0.0, 1e300, false,
+                    "a simulated time, 0 or more");
+    if (v) s.minimum_time = *v;
+    ok = ok && v.has_value();
+  }
+  if (node["reference"]) {
+    s.reference = Number(node["reference"], "reference", -1e300, 1e300, false, "a number");
+    ok = ok && s.reference.has_value();
+  }
+  return ok ? std::optional<StatisticConfig>(s) : std::nullopt;
+}
+
+std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
+  RunConfig c;
+  const fs::path path = fs::absolute(file_);
+  c.config_path = path.string();
+  folder_ = path.parent_path();
+  c.run_folder = folder_.string();
+  c.run_name = path.stem().string();
+  c.store_path = (folder_ / "plateau.db").string();
+  if (!root.IsMap()) {
+    Error(root, "the config must be a map of settings, sources and statistics");
+    return std::nullopt;
+  }
+  CheckKeys(root,
+            {"run", "store", "evaluate_every", "poll_every", "confidence", "batches", "warmup",
+             "confirmations", "minimum_effective_samples", "drift_p_value", "blocks", "sources",
+             "statistics"},
+            "the run settings");
+  LoadSettings(root, c);
+  const YAML::Node sources = root["sources"];
+  if (!sources || !sources.IsSequence() || sources.size() == 0) {
+    Error(sources ? sources : root, "sources must be a list with at least one source");
+  } else {
+    std::set<std::string> names;
+    for (const YAML::Node& node : sources) {
+      if (auto s = LoadSource(node)) {
+        if (!names.insert(s->name).second) Error(node, "source name '" + s->name + "' repeats");
+        c.sources.push_back(*s);
+      }
+    }
+  }
+  const YAML::Node statistics = root["statistics"];
+  if (!statistics || !statistics.IsSequence() || statistics.size() == 0) {
+    Error(statistics ? statistics : root, "statistics must be a list with at least one statistic");
+  } else {
+    std::set<std::string> names;
+    for (const YAML::Node& node : statistics) {
+      if (auto s = LoadStatistic(node, c)) {
+        if (!names.insert(s->request.name).second) {
+          Error(node, "statistic name '" + s->request.name + "' repeats; give one a name");
+        }
+        c.statistics.push_back(*s);
+      }
+    }
+  }
+  if (c.blocks < static_cast<std::size_t>(4 * c.evaluation.batches)) {
+    Error(root, "blocks must be at least four times batches");
+  }
+  if (!errors_->empty()) return std::nullopt;
+  return c;
+}
+
+}  // namespace
+
+std::string ConfigError::ToString() const {
+  if (line == 0) return file + ": " + message;
+  return file + ":" + std::to_string(line) + ":" + std::to_string(column) + ": " + message;
+}
+
+std::optional<RunConfig> ParseRunConfig(const std::string& text, const std::string& path,
+                                        std::vector<ConfigError>* errors) {
+  YAML::Node root;
+  try {
+    root = YAML::Load(text);
+  } catch (const YAML::Exception& e) {
+    errors->push_back({path, e.mark.is_null() ? 0 : e.mark.line + 1,
+                       e.mark.is_null() ? 0 : e.mark.column + 1,
+                       "not valid YAML: " + e.msg});
+    return std::nullopt;
+  }
+  try {
+    return Loader(path, errors).Load(root);
+  } catch (const YAML::Exception& e) {
+    errors->push_back({path, e.mark.is_null() ? 0 : e.mark.line + 1,
+                       e.mark.is_null() ? 0 : e.mark.column + 1, e.msg});
+    return std::nullopt;
+  }
+}
+
+std::optional<RunConfig> LoadRunConfig(const std::string& path, std::vector<ConfigError>* errors) {
+  std::ifstream in(path);
+  if (!in) {
+    errors->push_back({path, 0, 0, "cannot read the config file"});
+    return std::nullopt;
+  }
+  std::stringstream text;
+  text << in.rdbuf();
+  return ParseRunConfig(text.str(), path, errors);
+}
+
+}  // namespace plateau

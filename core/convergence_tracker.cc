@@ -1,0 +1,155 @@
+#include "core/convergence_tracker.h"
+
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+std::string Format(double value) {
+  std::ostringstream out;
+  out.precision(3);
+  out << value;
+  return out.str();
+}
+
+std::string Percent(double fraction) { return Format(100.0 * fraction) + " %"; }
+
+}  // namespace
+
+std::string_view ConvergenceStateName(ConvergenceState state) {
+  switch (state) {
+    case ConvergenceState::kNoData:
+      return "no_data";
+    case ConvergenceState::kNotEnoughData:
+      return "not_enough_data";
+    case ConvergenceState::kWarmingUp:
+      return "warming_up";
+    case ConvergenceState::kDrifting:
+      return "drifting";
+    case ConvergenceState::kConverging:
+      return "converging";
+    case ConvergenceState::kMet:
+      return "met";
+    case ConvergenceState::kMonitored:
+      return "monitored";
+  }
+  return "unknown";
+}
+
+ConvergenceTracker::ConvergenceTracker(std::string statistic, std::optional<Target> target,
+                                       StopRuleSettings settings)
+    : statistic_(std::move(statistic)),
+      target_(target),
+      settings_(settings),
+      met_at_time_(kNaN),
+      met_at_wall_(kNaN) {}
+
+double ConvergenceTracker::TargetHalfWidth(double value) const {
+  if (!target_) return kNaN;
+  return target_->kind == Target::Kind::kRelative ? target_->value * std::fabs(value)
+                                                  : target_->value;
+}
+
+std::pair<ConvergenceState, std::string> ConvergenceTracker::Judge(
+    const StatisticEstimate& e) const {
+  using S = ConvergenceState;
+  if (e.state == EstimateState::kNoData) return {S::kNoData, e.state_reason};
+  if (e.state == EstimateState::kNotEnoughData) return {S::kNotEnoughData, e.state_reason};
+  const double span = e.last_time - e.first_time;
+  if (span > 0.0 && e.warmup_end_time - e.first_time >= kWarmupStillGoing * span) {
+    return {S::kWarmingUp, "the start-up transient still fills nearly half of the data (cut at " +
+                               Format(e.warmup_end_time) + ")"};
+  }
+  if (e.drift_detected) {
+    return {S::kDrifting, "the mean still moves: Geweke z = " + Format(e.drift.z) + ", p = " +
+                              Format(e.drift.p_value)};
+  }
+  if (!target_) return {S::kMonitored, "no target set"};
+  const double wanted = TargetHalfWidth(e.value);
+  if (!(e.half_width <= wanted)) {
+    return {S::kConverging,
+            target_->kind == Target::Kind::kRelative
+                ? "half-width " + Percent(e.relative_half_width) + " of the value, target " +
+                      Percent(target_->value)
+                : "half-width " + Format(e.half_width) + ", target " + Format(target_->value)};
+  }
+  if (e.effective_samples < settings_.minimum_effective_samples) {
+    return {S::kConverging, "only " + Format(e.effective_samples) +
+                                " effective samples, the rule asks for " +
+                                Format(settings_.minimum_effective_samples)};
+  }
+  if (e.decision.batches_too_short) {
+    return {S::kConverging, "batches are shorter than ten integrated times"};
+  }
+  const double averaged = e.last_time - e.warmup_end_time;
+  if (averaged < settings_.minimum_time) {
+    return {S::kConverging, "averaged over " + Format(averaged) + " time units, the minimum is " +
+                                Format(settings_.minimum_time)};
+  }
+  return {S::kMet, ""};
+}
+
+std::optional<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate& estimate,
+                                                           double wall_time) {
+  auto [state, reason] = Judge(estimate);
+  std::optional<ConvergenceEvent> event;
+  if (state == ConvergenceState::kMet) {
+    if (estimate.samples_total > confirmed_samples_ || consecutive_ == 0) {
+      ++consecutive_;
+      confirmed_samples_ = estimate.samples_total;
+    }
+    if (consecutive_ < settings_.confirmations) {
+      state = ConvergenceState::kConverging;
+      reason = "target reached, confirmation " + std::to_string(consecutive_) + " of " +
+               std::to_string(settings_.confirmations);
+    } else if (!met_) {
+      met_ = true;
+      met_at_time_ = estimate.last_time;
+      met_at_wall_ = wall_time;
+      event = ConvergenceEvent{ConvergenceEvent::Kind::kMet, statistic_, estimate.last_time,
+                               wall_time,
+                               statistic_ + " met its target: " + Format(estimate.value) + " ± " +
+                                   Format(estimate.half_width) + " at " +
+                                   Percent(estimate.confidence) + " confidence"};
+    }
+  } else {
+    consecutive_ = 0;
+    if (met_) {
+      met_ = false;
+      event = ConvergenceEvent{ConvergenceEvent::Kind::kLost, statistic_, estimate.last_time,
+                               wall_time, statistic_ + " no longer meets its target: " + reason};
+    }
+  }
+  state_ = state;
+  reason_ = reason;
+  return event;
+}
+
+void ConvergenceTracker::Retarget(std::optional<Target> target, StopRuleSettings settings) {
+  target_ = target;
+  settings_ = settings;
+  consecutive_ = 0;
+}
+
+std::vector<double> ConvergenceTracker::SaveState() const {
+  return {static_cast<double>(consecutive_), met_ ? 1.0 : 0.0, met_at_time_, met_at_wall_,
+          static_cast<double>(state_), static_cast<double>(confirmed_samples_)};
+}
+
+bool ConvergenceTracker::RestoreState(const std::vector<double>& state) {
+  if (state.size() != 6) return false;
+  confirmed_samples_ = static_cast<std::uint64_t>(state[5]);
+  consecutive_ = static_cast<int>(state[0]);
+  met_ = state[1] != 0.0;
+  met_at_time_ = state[2];
+  met_at_wall_ = state[3];
+  state_ = static_cast<ConvergenceState>(static_cast<int>(state[4]));
+  reason_ = "restored from the checkpoint";
+  return true;
+}
+
+}  // namespace plateau

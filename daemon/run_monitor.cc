@@ -1,0 +1,255 @@
+#include "daemon/run_monitor.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+#include "daemon/analysis_report.h"
+#include "daemon/json_writer.h"
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+std::string_view TargetKindName(Target::Kind kind) {
+  return kind == Target::Kind::kRelative ? "relative" : "absolute";
+}
+
+// The status object of one statistic: the keys of `plateau analyze --json`, plus the stop rule's.
+std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
+                          const ConvergenceTracker& tracker, const std::string& state,
+                          const std::string& reason) {
+  JsonWriter json;
+  json.BeginObject();
+  WriteEstimateFields(json, e, c.request.columns);
+  json.Field("source", c.source);
+  json.Field("state", state);
+  json.Field("state_reason", reason);
+  json.Key("target");
+  if (c.target) {
+    json.BeginObject();
+    json.Field("kind", TargetKindName(c.target->kind));
+    json.Field("value", c.target->value);
+    json.Field("confidence", c.target->confidence);
+    json.EndObject();
+  } else {
+    json.Null();
+  }
+  json.Field("target_half_width", tracker.TargetHalfWidth(e.value));
+  json.Field("confirmations", tracker.consecutive());
+  json.Key("met_at");
+  if (tracker.met()) {
+    json.BeginObject();
+    json.Field("simulated_time", tracker.met_at_time());
+    json.Field("wall_time", tracker.met_at_wall());
+    json.EndObject();
+  } else {
+    json.Null();
+  }
+  json.Field("minimum_time", c.minimum_time);
+  json.Field("reference", c.reference ? *c.reference : kNaN);
+  json.EndObject();
+  return json.text();
+}
+
+StopRuleSettings SettingsFor(const RunConfig& config, const StatisticConfig& c) {
+  StopRuleSettings settings = config.stop_rule;
+  settings.minimum_time = c.minimum_time;
+  return settings;
+}
+
+}  // namespace
+
+RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
+                       std::shared_ptr<spdlog::logger> log)
+    : config_(std::move(config)), store_(std::move(store)), log_(std::move(log)) {
+  for (const SourceConfig& source : config_.sources) {
+    std::vector<StatisticRequest> requests;
+    for (const StatisticConfig& s : config_.statistics) {
+      if (s.source == source.name) requests.push_back(s.request);
+    }
+    tails_.push_back(std::make_unique<SourceTail>(source, requests, config_.blocks, log_));
+  }
+  for (const StatisticConfig& s : config_.statistics) {
+    tracked_.push_back(
+        {&s, TailOf(s.source), ConvergenceTracker(s.request.name, s.target, SettingsFor(config_, s))});
+  }
+}
+
+SourceTail* RunMonitor::TailOf(const std::string& source) {
+  for (auto& tail : tails_) {
+    if (tail->config().name == source) return tail.get();
+  }
+  return nullptr;
+}
+
+std::string RunMonitor::Fingerprint(const RunConfig& config) {
+  std::string f = "blocks=" + std::to_string(config.blocks);
+  for (const SourceConfig& s : config.sources) {
+    f += "|source=" + s.name + ";" + s.files + ";" + s.time_column + ";";
+    for (const std::string& c : s.columns) f += c + ",";
+  }
+  for (const StatisticConfig& s : config.statistics) {
+    f += "|statistic=" + s.request.name + ";" + s.source + ";" +
+         std::string(KindName(s.request.kind)) + ";";
+    for (const std::string& c : s.request.columns) f += c + ",";
+  }
+  return f;
+}
+
+void RunMonitor::Restore() {
+  Status status;
+  const std::optional<StoredCheckpoint> checkpoint = store_->ReadCheckpoint(&status);
+  if (!status.ok()) {
+    log_->error("cannot read the checkpoint: {}; starting from the beginning of every file",
+                status.message());
+    return;
+  }
+  if (!checkpoint) {
+    log_->info("new store {}: reading every file from its start", store_->path());
+    return;
+  }
+  cycle_ = checkpoint->cycle;
+  if (checkpoint->fingerprint != Fingerprint(config_)) {
+    log_->warn("the sources or statistics changed since the checkpoint of cycle {}: reading "
+               "every file again from its start",
+               checkpoint->cycle);
+    return;
+  }
+  for (auto& tail : tails_) tail->Restore(*checkpoint);
+  for (Tracked& t : tracked_) {
+    const auto state = checkpoint->items.find("tracker:" + t.config->request.name);
+    if (state != checkpoint->items.end()) t.tracker.RestoreState(state->second);
+  }
+  const auto run = checkpoint->items.find("run");
+  run_met_ = run != checkpoint->items.end() && !run->second.empty() && run->second[0] != 0.0;
+  log_->info("resumed from the checkpoint of cycle {} ({} files)", checkpoint->cycle,
+             checkpoint->files.size());
+}
+
+bool RunMonitor::Poll(double wall_time) {
+  bool more = false;
+  for (auto& tail : tails_) more = tail->Poll(wall_time) || more;
+  return more;
+}
+
+std::vector<std::string> RunMonitor::Folders() const {
+  std::vector<std::string> folders;
+  for (const auto& tail : tails_) {
+    for (const std::string& f : tail->Folders()) folders.push_back(f);
+  }
+  std::sort(folders.begin(), folders.end());
+  folders.erase(std::unique(folders.begin(), folders.end()), folders.end());
+  return folders;
+}
+
+SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events) {
+  const StatisticConfig& c = *t.config;
+  EvaluationOptions options = config_.evaluation;
+  if (c.target) options.confidence = c.target->confidence;
+  const Statistic* statistic = t.tail->Find(c.request.name);
+  const std::string problem = t.tail->ProblemOf(c.request.name);
+  StatisticEstimate e;
+  if (statistic != nullptr) {
+    e = statistic->Evaluate(options);
+  } else {
+    e.name = c.request.name;
+    e.kind = c.request.kind;
+    e.confidence = options.confidence;
+    e.state_reason = problem.empty() ? "no file of source '" + c.source + "' has been read yet"
+                                     : problem;
+  }
+  std::string state;
+  std::string reason;
+  if (!problem.empty()) {
+    state = "column_missing";
+    reason = problem;
+  } else {
+    if (auto event = t.tracker.Update(e, wall_time)) {
+      events.push_back({0, 0, event->wall_time, event->simulated_time, event->statistic,
+                        event->kind == ConvergenceEvent::Kind::kMet ? "met" : "lost",
+                        event->message});
+    }
+    state = std::string(ConvergenceStateName(t.tracker.state()));
+    reason = t.tracker.reason();
+  }
+  SnapshotRow row;
+  row.statistic = c.request.name;
+  row.state = state;
+  row.state_reason = reason;
+  row.confidence = options.confidence;
+  row.target_kind = c.target ? std::string(TargetKindName(c.target->kind)) : "";
+  row.target_value = c.target ? c.target->value : kNaN;
+  row.target_half_width = t.tracker.TargetHalfWidth(e.value);
+  row.met_at_time = t.tracker.met() ? t.tracker.met_at_time() : kNaN;
+  row.met_at_wall = t.tracker.met() ? t.tracker.met_at_wall() : kNaN;
+  row.value = e.value;
+  row.half_width = e.half_width;
+  row.relative_half_width = e.relative_half_width;
+  row.integrated_time = e.integrated_time;
+  row.effective_samples = e.effective_samples;
+  row.warmup_end_time = e.warmup_end_time;
+  row.samples_used = static_cast<std::int64_t>(e.samples_used);
+  row.last_time = e.last_time;
+  row.json = StatisticJson(e, c, t.tracker, state, reason);
+  return row;
+}
+
+Status RunMonitor::Evaluate(double wall_time) {
+  CycleRecord record;
+  record.cycle = cycle_ + 1;
+  record.wall_time = wall_time;
+  record.fingerprint = Fingerprint(config_);
+  record.last_sample_time = kNaN;
+  record.last_sample_wall_time = kNaN;
+  for (const auto& tail : tails_) {
+    const double t = tail->last_sample_time();
+    if (!std::isnan(t) && !(t <= record.last_sample_time)) record.last_sample_time = t;
+    const double w = tail->last_sample_wall_time();
+    if (!std::isnan(w) && !(w <= record.last_sample_wall_time)) record.last_sample_wall_time = w;
+  }
+  std::vector<EventRow> events;
+  int targets = 0;
+  int met = 0;
+  for (Tracked& t : tracked_) {
+    record.snapshots.push_back(Snapshot(t, wall_time, events));
+    if (t.config->target) {
+      ++targets;
+      met += t.tracker.met();
+    }
+  }
+  const bool run_met = targets > 0 && met == targets;
+  if (run_met != run_met_) {
+    events.push_back({0, 0, wall_time, record.last_sample_time, "", run_met ? "run_met" : "run_lost",
+                      run_met ? "every target of run " + config_.run_name + " is met: stop"
+                              : "run " + config_.run_name + " no longer meets every target"});
+    run_met_ = run_met;
+  }
+  record.run_met = run_met_;
+  pending_events_.insert(pending_events_.end(), events.begin(), events.end());
+  record.events = pending_events_;
+  for (const auto& tail : tails_) tail->Checkpoint(record);
+  for (const Tracked& t : tracked_) {
+    record.checkpoint["tracker:" + t.config->request.name] = t.tracker.SaveState();
+  }
+  record.checkpoint["run"] = {run_met_ ? 1.0 : 0.0};
+
+  const Status status = store_->WriteCycle(record);
+  if (!status.ok()) {
+    log_->error("cannot record cycle {}: {}; the state is kept in memory and written at the "
+                "next evaluation",
+                record.cycle, status.message());
+    last_write_failed_ = true;
+    return status;
+  }
+  if (last_write_failed_) log_->info("the store accepts writes again (cycle {})", record.cycle);
+  last_write_failed_ = false;
+  cycle_ = record.cycle;
+  for (const EventRow& e : pending_events_) log_->info("event {}: {}", e.kind, e.message);
+  pending_events_.clear();
+  log_->debug("cycle {}: {} of {} targets met", cycle_, met, targets);
+  return status;
+}
+
+}  // namespace plateau

@@ -1,0 +1,67 @@
+// The watching daemon's logic without its event loop: restores from the store's checkpoint, polls
+// every source, evaluates every statistic against its target, and records each cycle (snapshots,
+// events, checkpoint) in one store transaction. A failed write (a full disk) loses nothing: the
+// cycle's events stay pending and the next cycle writes the state again. Not thread-safe: the
+// event loop owns it.
+#ifndef PLATEAU_DAEMON_RUN_MONITOR_H_
+#define PLATEAU_DAEMON_RUN_MONITOR_H_
+
+#include <spdlog/spdlog.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "config/run_config.h"
+#include "core/convergence_tracker.h"
+#include "core/status.h"
+#include "daemon/source_tail.h"
+#include "store/run_store.h"
+
+namespace plateau {
+
+class RunMonitor {
+ public:
+  RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
+             std::shared_ptr<spdlog::logger> log);
+
+  // Resumes from the store's checkpoint when it was written for the same sources and statistics;
+  // otherwise (a new store, or a changed config) every file is read from its start.
+  void Restore();
+  // Reads what the probe files gained. Returns true when more bytes are waiting.
+  bool Poll(double wall_time);
+  // Evaluates every statistic and writes one cycle to the store.
+  Status Evaluate(double wall_time);
+
+  bool run_met() const { return run_met_; }
+  std::int64_t cycle() const { return cycle_; }
+  const RunConfig& config() const { return config_; }
+  std::vector<std::string> Folders() const;
+
+  // What identifies the meaning of the checkpointed estimator state: sources and statistics, not
+  // targets (those may change between restarts without re-reading anything).
+  static std::string Fingerprint(const RunConfig& config);
+
+ private:
+  struct Tracked {
+    const StatisticConfig* config;
+    SourceTail* tail;
+    ConvergenceTracker tracker;
+  };
+  SourceTail* TailOf(const std::string& source);
+  SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events);
+
+  RunConfig config_;
+  std::unique_ptr<RunStore> store_;
+  std::shared_ptr<spdlog::logger> log_;
+  std::vector<std::unique_ptr<SourceTail>> tails_;
+  std::vector<Tracked> tracked_;
+  std::vector<EventRow> pending_events_;
+  std::int64_t cycle_ = 0;
+  bool run_met_ = false;
+  bool last_write_failed_ = false;
+};
+
+}  // namespace plateau
+
+#endif  // PLATEAU_DAEMON_RUN_MONITOR_H_

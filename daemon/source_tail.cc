@@ -1,0 +1,300 @@
+#include "daemon/source_tail.h"
+
+#include <glob.h>
+#include <sys/stat.h>
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <set>
+
+#include "daemon/analysis_report.h"
+#include "daemon/probe_file_reader.h"
+
+namespace plateau {
+namespace {
+
+namespace fs = std::filesystem;
+
+std::vector<std::string> ExpandGlob(const std::string& pattern) {
+  std::vector<std::string> paths;
+  glob_t matches{};
+  if (::glob(pattern.c_str(), 0, nullptr, &matches) == 0) {
+    for (std::size_t i = 0; i < matches.gl_pathc; ++i) {
+      struct stat info {};
+      if (::stat(matches.gl_pathv[i], &info) == 0 && S_ISREG(info.st_mode)) {
+        paths.emplace_back(matches.gl_pathv[i]);
+      }
+    }
+  }
+  ::globfree(&matches);
+  return paths;
+}
+
+// The folder part of a glob before its first wildcard: it exists before the solver writes there.
+std::string FixedFolder(const std::string& pattern) {
+  const std::size_t wildcard = pattern.find_first_of("*?[");
+  const std::string fixed = wildcard == std::string::npos ? pattern : pattern.substr(0, wildcard);
+  return fs::path(fixed).parent_path().string();
+}
+
+std::string Joined(const std::vector<std::string>& names) {
+  std::string out;
+  for (const std::string& n : names) out += (out.empty() ? "" : ", ") + n;
+  return out;
+}
+
+}  // namespace
+
+// Routes one file's parser output into the source: names, rows through the time gate, bad lines
+// into the log (the first few one by one).
+class SourceTail::FileSink : public RowSink {
+ public:
+  FileSink(SourceTail& tail, TrackedFile& file, double wall_time)
+      : tail_(tail), file_(file), wall_time_(wall_time) {}
+
+  void OnColumns(const std::vector<std::string>& header) override {
+    std::vector<std::string> names = header;
+    const std::vector<std::string>& wanted = tail_.config_.columns;
+    if (!wanted.empty()) {
+      if (wanted.size() != header.size()) {
+        tail_.log_->error("{}: has {} columns but source '{}' names {}; the file is ignored",
+                          file_.path, header.size(), tail_.config_.name, wanted.size());
+        file_.layout_mismatch = true;
+        return;
+      }
+      names = wanted;
+    }
+    if (!tail_.source_) {
+      tail_.StartSource(names, file_.path);
+    } else if (names != tail_.source_->columns()) {
+      tail_.log_->error("{}: its columns ({}) differ from the source's ({}); the file is ignored",
+                        file_.path, Joined(names), Joined(tail_.source_->columns()));
+      file_.layout_mismatch = true;
+    }
+  }
+
+  void OnRow(std::uint64_t, const double* values) override {
+    if (file_.layout_mismatch || !tail_.source_) return;
+    const double time = values[tail_.source_->time_index()];
+    if (std::isnan(file_.first_time)) file_.first_time = time;
+    file_.last_time = time;
+    if (tail_.source_->Add(values)) {
+      tail_.last_sample_wall_time_ = wall_time_;
+      if (tail_.source_->gate().skipped() > tail_.overlap_reported_) tail_.ReportOverlap();
+    }
+  }
+
+  void OnBadLine(std::uint64_t line, std::string_view reason) override {
+    if (file_.bad_lines_logged < kBadLinesLoggedPerFile) {
+      ++file_.bad_lines_logged;
+      file_.bad_lines_reported = file_.parser.bad_lines();
+      tail_.log_->warn("{}:{}: {}; line skipped", file_.path, line, reason);
+    }
+  }
+
+ private:
+  SourceTail& tail_;
+  TrackedFile& file_;
+  double wall_time_;
+};
+
+SourceTail::SourceTail(SourceConfig config, std::vector<StatisticRequest> requests,
+                       std::size_t blocks, std::shared_ptr<spdlog::logger> log)
+    : config_(std::move(config)),
+      requests_(std::move(requests)),
+      blocks_(blocks),
+      log_(std::move(log)) {}
+
+void SourceTail::StartSource(const std::vector<std::string>& columns,
+                             const std::string& from_file) {
+  std::string error;
+  source_ = SourceStatistics::Make(columns, config_.time_column, requests_, blocks_, &error);
+  if (!source_) {
+    log_->error("source '{}' ({}): {}; nothing of it can be estimated until the config is fixed",
+                config_.name, from_file, error);
+    return;
+  }
+  for (const SourceStatistics::Problem& p : source_->problems()) {
+    log_->error("statistic '{}' of source '{}': {}", requests_[p.request].name, config_.name,
+                p.message);
+  }
+}
+
+void SourceTail::ReportOverlap() {
+  const TimeOrderGate::Overlap o = source_->gate().TakeFinishedOverlap();
+  overlap_reported_ = source_->gate().skipped();
+  if (o.samples == 0) return;
+  log_->info("source '{}': skipped {} samples with times {} to {}, already recorded before a "
+             "restart",
+             config_.name, o.samples, FormatValue(o.first_time), FormatValue(o.last_time));
+}
+
+std::string SourceTail::ProblemOf(const std::string& statistic_name) const {
+  if (!source_) return "";
+  for (const SourceStatistics::Problem& p : source_->problems()) {
+    if (requests_[p.request].name == statistic_name) return p.message;
+  }
+  return "";
+}
+
+const Statistic* SourceTail::Find(const std::string& statistic_name) const {
+  if (!source_) return nullptr;
+  for (const Statistic& s : source_->statistics()) {
+    if (s.name() == statistic_name) return &s;
+  }
+  return nullptr;
+}
+
+double SourceTail::last_sample_time() const {
+  if (!source_) return std::numeric_limits<double>::quiet_NaN();
+  const double t = source_->gate().last_time();
+  return std::isinf(t) ? std::numeric_limits<double>::quiet_NaN() : t;
+}
+
+std::vector<std::string> SourceTail::Folders() const {
+  std::set<std::string> folders{FixedFolder(config_.files)};
+  for (const TrackedFile& f : files_) folders.insert(fs::path(f.path).parent_path().string());
+  return {folders.begin(), folders.end()};
+}
+
+void SourceTail::DiscoverFiles() {
+  for (const std::string& path : ExpandGlob(config_.files)) {
+    const bool known = std::any_of(files_.begin(), files_.end(),
+                                   [&](const TrackedFile& f) { return f.path == path; });
+    if (known) continue;
+    TrackedFile file;
+    file.path = path;
+    struct stat info {};
+    if (::stat(path.c_str(), &info) == 0) file.inode = static_cast<std::int64_t>(info.st_ino);
+    log_->info("source '{}': reading new file {}", config_.name, path);
+    files_.push_back(std::move(file));
+  }
+}
+
+bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
+  struct stat info {};
+  if (::stat(file.path.c_str(), &info) != 0) {
+    if (!file.vanished) {
+      log_->warn("{} vanished; the {} samples read from it are kept", file.path,
+                 file.parser.rows());
+      file.vanished = true;
+    }
+    return false;
+  }
+  const auto inode = static_cast<std::int64_t>(info.st_ino);
+  *size = static_cast<std::uint64_t>(info.st_size);
+  const std::uint64_t read_to = file.parser.consumed_bytes() + file.parser.pending_bytes();
+  const bool replaced = inode != file.inode || file.vanished;
+  const bool truncated = *size < read_to;
+  if (replaced || truncated) {
+    log_->warn("{} was {} (size {} bytes, {} read); reading it again from the start: samples "
+               "already recorded are skipped by time",
+               file.path, replaced ? "replaced" : "truncated", *size, read_to);
+    file.inode = inode;
+    file.parser = RowParser();
+    file.vanished = false;
+    file.layout_mismatch = false;
+    file.bad_lines_logged = 0;
+    file.bad_lines_reported = 0;
+  }
+  return true;
+}
+
+bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
+  std::uint64_t size = 0;
+  if (!CheckIdentity(file, &size) || file.layout_mismatch) return false;
+  const std::uint64_t from = file.parser.consumed_bytes() + file.parser.pending_bytes();
+  if (size <= from) return false;
+  FileSink sink(*this, file, wall_time);
+  const std::uint64_t start = file.parser.consumed_bytes();
+  const FileReadResult read = ReadProbeFile(file.path, from, file.parser, sink, [&] {
+    return file.parser.consumed_bytes() - start < kBytesPerPoll && !file.layout_mismatch;
+  });
+  if (!read.ok) {
+    log_->warn("{}; will try again at the next poll", read.error);
+    return false;
+  }
+  const std::uint64_t unreported = file.parser.bad_lines() - file.bad_lines_reported;
+  if (unreported > 0 && file.bad_lines_logged >= kBadLinesLoggedPerFile) {
+    log_->warn("{}: {} more bad lines skipped ({} in all)", file.path, unreported,
+               file.parser.bad_lines());
+    file.bad_lines_reported = file.parser.bad_lines();
+  }
+  return from + read.bytes < size;
+}
+
+bool SourceTail::Poll(double wall_time) {
+  DiscoverFiles();
+  // Oldest first time first: the remainder of a run's file before its restart's new file.
+  std::vector<TrackedFile*> order;
+  for (TrackedFile& f : files_) order.push_back(&f);
+  std::stable_sort(order.begin(), order.end(), [](const TrackedFile* a, const TrackedFile* b) {
+    const double ta = std::isnan(a->first_time) ? INFINITY : a->first_time;
+    const double tb = std::isnan(b->first_time) ? INFINITY : b->first_time;
+    return ta < tb;
+  });
+  bool more = false;
+  for (TrackedFile* f : order) more = ReadFile(*f, wall_time) || more;
+  return more;
+}
+
+void SourceTail::Checkpoint(CycleRecord& record) const {
+  for (const TrackedFile& f : files_) {
+    FileProgress p;
+    p.path = f.path;
+    p.source = config_.name;
+    p.inode = f.inode;
+    // A file whose header was read but no row yet restarts from its beginning: the parser would
+    // otherwise have lost the column names that only the skipped comment lines carry.
+    const bool has_layout = f.parser.has_columns();
+    p.offset = has_layout ? static_cast<std::int64_t>(f.parser.consumed_bytes()) : 0;
+    p.lines = has_layout ? static_cast<std::int64_t>(f.parser.lines()) : 0;
+    p.rows = static_cast<std::int64_t>(f.parser.rows());
+    p.bad_lines = has_layout ? static_cast<std::int64_t>(f.parser.bad_lines()) : 0;
+    p.first_time = f.first_time;
+    p.last_time = f.last_time;
+    if (has_layout) p.columns = f.parser.column_names();
+    p.vanished = f.vanished;
+    record.files.push_back(std::move(p));
+  }
+  if (!source_) return;
+  record.checkpoint["gate:" + config_.name] = {source_->gate().last_time(),
+                                               static_cast<double>(source_->gate().skipped())};
+  for (const Statistic& s : source_->statistics()) {
+    record.checkpoint["history:" + s.name()] = s.history().SaveState();
+  }
+}
+
+void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
+  for (const FileProgress& p : checkpoint.files) {
+    if (p.source != config_.name) continue;
+    TrackedFile file;
+    file.path = p.path;
+    file.inode = p.inode;
+    file.first_time = p.first_time;
+    file.last_time = p.last_time;
+    file.vanished = p.vanished;
+    file.parser.Resume(p.columns, p.lines, p.offset, p.rows, p.bad_lines);
+    file.bad_lines_reported = static_cast<std::uint64_t>(p.bad_lines);
+    if (!p.columns.empty() && !source_) {
+      const std::vector<std::string>& names = config_.columns.empty() ? p.columns : config_.columns;
+      StartSource(names, p.path);
+    }
+    files_.push_back(std::move(file));
+  }
+  if (!source_) return;
+  const auto gate = checkpoint.items.find("gate:" + config_.name);
+  if (gate != checkpoint.items.end() && gate->second.size() == 2) {
+    source_->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
+    overlap_reported_ = source_->gate().skipped();
+  }
+  for (Statistic& s : source_->statistics()) {
+    const auto state = checkpoint.items.find("history:" + s.name());
+    if (state == checkpoint.items.end() || !s.history().RestoreState(state->second)) {
+      log_->warn("statistic '{}': no usable state in the checkpoint; it starts empty", s.name());
+    }
+  }
+}
+
+}  // namespace plateau

@@ -1,0 +1,126 @@
+#include "daemon/watch_loop.h"
+
+#include <sys/inotify.h>
+#include <unistd.h>
+
+#include <chrono>
+#include <csignal>
+#include <cstring>
+
+namespace plateau {
+namespace {
+
+constexpr double kInotifyDelay = 0.1;  // seconds: let a burst of writes settle before reading
+
+std::chrono::steady_clock::duration Seconds(double s) {
+  return std::chrono::duration_cast<std::chrono::steady_clock::duration>(
+      std::chrono::duration<double>(s));
+}
+
+}  // namespace
+
+double WallSeconds() {
+  return std::chrono::duration<double>(std::chrono::system_clock::now().time_since_epoch())
+      .count();
+}
+
+WatchLoop::WatchLoop(RunMonitor& monitor, double poll_seconds, double evaluate_seconds,
+                     std::shared_ptr<spdlog::logger> log)
+    : monitor_(monitor),
+      poll_seconds_(poll_seconds),
+      evaluate_seconds_(evaluate_seconds),
+      log_(std::move(log)),
+      poll_timer_(io_),
+      evaluate_timer_(io_),
+      signals_(io_, SIGINT, SIGTERM) {}
+
+WatchLoop::~WatchLoop() = default;
+
+void WatchLoop::StartInotify() {
+  const int fd = ::inotify_init1(IN_NONBLOCK | IN_CLOEXEC);
+  if (fd < 0) {
+    log_->warn("no inotify ({}): polling every {} s only", std::strerror(errno), poll_seconds_);
+    return;
+  }
+  inotify_.emplace(io_, fd);
+  WatchNewFolders();
+  ReadInotify();
+}
+
+void WatchLoop::WatchNewFolders() {
+  if (!inotify_) return;
+  for (const std::string& folder : monitor_.Folders()) {
+    if (watched_.count(folder) > 0) continue;
+    const int wd = ::inotify_add_watch(inotify_->native_handle(), folder.c_str(),
+                                       IN_MODIFY | IN_CREATE | IN_MOVED_TO | IN_CLOSE_WRITE |
+                                           IN_DELETE | IN_ATTRIB);
+    // A folder that does not exist yet is watched once it appears (polling finds it first).
+    if (wd >= 0) watched_.insert(folder);
+  }
+}
+
+void WatchLoop::ReadInotify() {
+  inotify_->async_read_some(boost::asio::buffer(inotify_buffer_),
+                            [this](const boost::system::error_code& error, std::size_t) {
+                              if (error) {
+                                if (error != boost::asio::error::operation_aborted) {
+                                  log_->warn("inotify stopped ({}); polling only",
+                                             error.message());
+                                }
+                                return;
+                              }
+                              if (!poll_soon_) SchedulePoll(kInotifyDelay);
+                              ReadInotify();
+                            });
+}
+
+void WatchLoop::SchedulePoll(double seconds) {
+  poll_soon_ = seconds < poll_seconds_;
+  poll_timer_.expires_after(Seconds(seconds));
+  poll_timer_.async_wait([this](const boost::system::error_code& error) {
+    if (!error) PollNow();
+  });
+}
+
+void WatchLoop::PollNow() {
+  const bool more = monitor_.Poll(WallSeconds());
+  WatchNewFolders();
+  // A capped read means gigabytes of catch-up: continue at once, but through the loop, so that
+  // signals and evaluations get their turn between slices.
+  SchedulePoll(more ? 0.0 : poll_seconds_);
+}
+
+void WatchLoop::ScheduleEvaluation() {
+  evaluate_timer_.expires_after(Seconds(evaluate_seconds_));
+  evaluate_timer_.async_wait([this](const boost::system::error_code& error) {
+    if (error) return;
+    monitor_.Evaluate(WallSeconds());
+    ScheduleEvaluation();
+  });
+}
+
+void WatchLoop::Stop(int signal) {
+  // No catch-up first: a batch system that sent SIGTERM sends SIGKILL soon after. What is unread
+  // stays unread; the checkpoint's offsets say where to resume.
+  log_->info("{}: writing a final cycle and stopping", signal == SIGINT ? "SIGINT" : "SIGTERM");
+  if (!monitor_.Evaluate(WallSeconds()).ok()) {
+    log_->error("the final cycle could not be written; the last recorded cycle ({}) stands",
+                monitor_.cycle());
+  }
+  exit_code_ = 0;
+  io_.stop();
+}
+
+int WatchLoop::Run() {
+  signals_.async_wait([this](const boost::system::error_code& error, int signal) {
+    if (!error) Stop(signal);
+  });
+  StartInotify();
+  PollNow();
+  monitor_.Evaluate(WallSeconds());
+  ScheduleEvaluation();
+  io_.run();
+  return exit_code_;
+}
+
+}  // namespace plateau

@@ -1,0 +1,62 @@
+// The event loop of `plateau watch`: a polling timer (always: network file systems do not report
+// writes made on other nodes), inotify through an Asio descriptor where it works (to read sooner),
+// an evaluation timer, and SIGINT/SIGTERM, which write a final cycle before exiting.
+// Single-threaded: every handler runs on the one io_context thread.
+#ifndef PLATEAU_DAEMON_WATCH_LOOP_H_
+#define PLATEAU_DAEMON_WATCH_LOOP_H_
+
+#include <utility>  // before Asio: Boost 1.74's Asio in C++20 mode needs it
+
+#include <boost/asio.hpp>
+#include <boost/asio/posix/stream_descriptor.hpp>
+#include <spdlog/spdlog.h>
+
+#include <array>
+#include <memory>
+#include <optional>
+#include <set>
+#include <string>
+
+#include "daemon/run_monitor.h"
+
+namespace plateau {
+
+class WatchLoop {
+ public:
+  WatchLoop(RunMonitor& monitor, double poll_seconds, double evaluate_seconds,
+            std::shared_ptr<spdlog::logger> log);
+  ~WatchLoop();
+
+  // Runs until SIGINT or SIGTERM; returns the process exit code (0 after a clean stop).
+  int Run();
+
+ private:
+  void StartInotify();
+  void WatchNewFolders();
+  void ReadInotify();
+  void SchedulePoll(double seconds);
+  void PollNow();
+  void ScheduleEvaluation();
+  void Stop(int signal);
+
+  RunMonitor& monitor_;
+  double poll_seconds_;
+  double evaluate_seconds_;
+  std::shared_ptr<spdlog::logger> log_;
+  boost::asio::io_context io_;
+  boost::asio::steady_timer poll_timer_;
+  boost::asio::steady_timer evaluate_timer_;
+  boost::asio::signal_set signals_;
+  std::optional<boost::asio::posix::stream_descriptor> inotify_;
+  std::array<char, 4096> inotify_buffer_{};
+  std::set<std::string> watched_;
+  bool poll_soon_ = false;
+  int exit_code_ = 0;
+};
+
+// Seconds since the epoch, the wall-clock time stamped on cycles and events.
+double WallSeconds();
+
+}  // namespace plateau
+
+#endif  // PLATEAU_DAEMON_WATCH_LOOP_H_

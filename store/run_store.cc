@@ -1,0 +1,434 @@
+#include "store/run_store.h"
+
+#include <array>
+
+namespace plateau {
+namespace {
+
+// Schema scripts by version: kMigrations[v - 1] takes a store from version v - 1 to v. A new
+// version appends a script (ALTER TABLE, new tables) and raises kSchemaVersion; old stores are
+// brought forward on open, in order, each step in its own transaction.
+constexpr std::array<const char*, RunStore::kSchemaVersion> kMigrations = {R"sql(
+CREATE TABLE meta(key TEXT PRIMARY KEY, value TEXT NOT NULL);
+CREATE TABLE cycles(
+  cycle INTEGER PRIMARY KEY,
+  wall_time REAL NOT NULL,
+  last_sample_time REAL,
+  last_sample_wall_time REAL,
+  run_met INTEGER NOT NULL);
+CREATE TABLE snapshots(
+  cycle INTEGER NOT NULL,
+  position INTEGER NOT NULL,
+  statistic TEXT NOT NULL,
+  state TEXT NOT NULL,
+  state_reason TEXT NOT NULL,
+  value REAL, half_width REAL, relative_half_width REAL, integrated_time REAL,
+  effective_samples REAL, warmup_end_time REAL, samples_used INTEGER, last_time REAL,
+  confidence REAL, target_kind TEXT NOT NULL, target_value REAL, target_half_width REAL,
+  met_at_time REAL, met_at_wall REAL,
+  PRIMARY KEY(cycle, position));
+CREATE TABLE latest(position INTEGER PRIMARY KEY, json TEXT NOT NULL);
+CREATE TABLE events(
+  id INTEGER PRIMARY KEY AUTOINCREMENT,
+  cycle INTEGER NOT NULL,
+  wall_time REAL NOT NULL,
+  simulated_time REAL,
+  statistic TEXT NOT NULL,
+  kind TEXT NOT NULL,
+  message TEXT NOT NULL);
+CREATE TABLE files(
+  path TEXT PRIMARY KEY,
+  source TEXT NOT NULL,
+  inode INTEGER NOT NULL,
+  offset INTEGER NOT NULL,
+  lines INTEGER NOT NULL,
+  rows INTEGER NOT NULL,
+  bad_lines INTEGER NOT NULL,
+  first_time REAL,
+  last_time REAL,
+  columns TEXT NOT NULL,
+  vanished INTEGER NOT NULL);
+CREATE TABLE checkpoint(item TEXT PRIMARY KEY, state BLOB NOT NULL);
+INSERT INTO meta(key, value) VALUES ('application', 'plateau');
+)sql"};
+
+std::string JoinColumns(const std::vector<std::string>& columns) {
+  std::string joined;
+  for (std::size_t i = 0; i < columns.size(); ++i) joined += (i ? "\t" : "") + columns[i];
+  return joined;
+}
+
+std::vector<std::string> SplitColumns(const std::string& joined) {
+  std::vector<std::string> columns;
+  if (joined.empty()) return columns;
+  std::string item;
+  for (char c : joined) {
+    if (c == '\t') {
+      columns.push_back(item);
+      item.clear();
+    } else {
+      item += c;
+    }
+  }
+  columns.push_back(item);
+  return columns;
+}
+
+// Runs `body` inside BEGIN IMMEDIATE .. COMMIT, rolling back on any failure.
+template <typename Body>
+Status InTransaction(SqliteConnection& db, Body body) {
+  Status status = db.Execute("BEGIN IMMEDIATE");
+  if (!status.ok()) return status;
+  status = body();
+  if (status.ok()) status = db.Execute("COMMIT");
+  if (!status.ok()) db.Execute("ROLLBACK");
+  return status;
+}
+
+}  // namespace
+
+std::unique_ptr<RunStore> RunStore::OpenForWriting(const std::string& path,
+                                                   const std::string& run_name, Status* status) {
+  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadWrite, status);
+  if (!connection) return nullptr;
+  // WAL: readers never block the daemon and see only committed cycles. synchronous=NORMAL keeps
+  // every committed cycle across a crash of the process; a power cut may lose the last one.
+  *status = connection->Execute("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;");
+  if (!status->ok()) return nullptr;
+  std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
+  *status = store->Migrate(run_name);
+  if (!status->ok()) return nullptr;
+  return store;
+}
+
+std::unique_ptr<RunStore> RunStore::OpenForReading(const std::string& path, Status* status) {
+  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadOnly, status);
+  if (!connection) return nullptr;
+  std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
+  int version = 0;
+  *status = store->SchemaVersion(&version);
+  if (!status->ok()) return nullptr;
+  if (version == 0) {
+    *status = Status::Error("store " + path + " is empty: the daemon has not written to it yet");
+    return nullptr;
+  }
+  if (version > kSchemaVersion) {
+    *status = Status::Error("store " + path + " has schema version " + std::to_string(version) +
+                            "; this plateau reads up to " + std::to_string(kSchemaVersion));
+    return nullptr;
+  }
+  return store;
+}
+
+Status RunStore::SchemaVersion(int* version) {
+  Status status;
+  auto tables = connection_->Prepare(
+      "SELECT count(*), sum(name = 'meta') FROM sqlite_master WHERE type = 'table'", &status);
+  if (!tables) return status;
+  if (!tables->Step()) {
+    return tables->status().ok() ? Status::Error(connection_->LastError())
+                                 : Status::Error("store " + path() + ": " +
+                                                 tables->status().message());
+  }
+  const std::int64_t count = tables->ColumnInt(0);
+  const std::int64_t has_meta = tables->ColumnInt(1);
+  if (count == 0) {
+    *version = 0;
+    return Status::Ok();
+  }
+  if (has_meta == 0) return Status::Error("store " + path() + " is not a plateau store");
+  auto query = connection_->Prepare(
+      "SELECT value FROM meta WHERE key = 'schema_version'", &status);
+  if (!query) return status;
+  *version = query->Step() ? std::stoi(query->ColumnText(0)) : 0;
+  return query->status();
+}
+
+Status RunStore::Migrate(const std::string& run_name) {
+  int version = 0;
+  Status status = SchemaVersion(&version);
+  if (!status.ok()) return status;
+  if (version > kSchemaVersion) {
+    return Status::Error("store " + path() + " has schema version " + std::to_string(version) +
+                         "; this plateau writes version " + std::to_string(kSchemaVersion) +
+                         ": use the newer plateau");
+  }
+  for (int next = version + 1; next <= kSchemaVersion; ++next) {
+    status = InTransaction(*connection_, [&] {
+      Status step = connection_->Execute(kMigrations[next - 1]);
+      if (!step.ok()) return step;
+      Status prepared;
+      auto set = connection_->Prepare(
+          "INSERT OR REPLACE INTO meta(key, value) VALUES ('schema_version', ?1), "
+          "('run_name', ?2)",
+          &prepared);
+      if (!set) return prepared;
+      set->Bind(1, std::to_string(next));
+      set->Bind(2, run_name);
+      return set->Run();
+    });
+    if (!status.ok()) return status;
+  }
+  return Status::Ok();
+}
+
+Status RunStore::WriteCycle(const CycleRecord& r) {
+  SqliteConnection& db = *connection_;
+  return InTransaction(db, [&]() -> Status {
+    Status s;
+    auto cycle = db.Prepare(
+        "INSERT OR REPLACE INTO cycles(cycle, wall_time, last_sample_time, "
+        "last_sample_wall_time, run_met) VALUES (?1, ?2, ?3, ?4, ?5)",
+        &s);
+    if (!cycle) return s;
+    cycle->Bind(1, r.cycle);
+    cycle->Bind(2, r.wall_time);
+    cycle->Bind(3, r.last_sample_time);
+    cycle->Bind(4, r.last_sample_wall_time);
+    cycle->Bind(5, static_cast<std::int64_t>(r.run_met));
+    if (!(s = cycle->Run()).ok()) return s;
+
+    if (!(s = db.Execute("DELETE FROM latest")).ok()) return s;
+    auto snapshot = db.Prepare(
+        "INSERT OR REPLACE INTO snapshots VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
+        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)",
+        &s);
+    auto latest = db.Prepare("INSERT INTO latest VALUES (?1, ?2)", &s);
+    if (!snapshot || !latest) return s;
+    for (std::size_t i = 0; i < r.snapshots.size(); ++i) {
+      const SnapshotRow& row = r.snapshots[i];
+      const auto position = static_cast<std::int64_t>(i);
+      snapshot->Reset();
+      snapshot->Bind(1, r.cycle);
+      snapshot->Bind(2, position);
+      snapshot->Bind(3, row.statistic);
+      snapshot->Bind(4, row.state);
+      snapshot->Bind(5, row.state_reason);
+      snapshot->Bind(6, row.value);
+      snapshot->Bind(7, row.half_width);
+      snapshot->Bind(8, row.relative_half_width);
+      snapshot->Bind(9, row.integrated_time);
+      snapshot->Bind(10, row.effective_samples);
+      snapshot->Bind(11, row.warmup_end_time);
+      snapshot->Bind(12, row.samples_used);
+      snapshot->Bind(13, row.last_time);
+      snapshot->Bind(14, row.confidence);
+      snapshot->Bind(15, row.target_kind);
+      snapshot->Bind(16, row.target_value);
+      snapshot->Bind(17, row.target_half_width);
+      snapshot->Bind(18, row.met_at_time);
+      snapshot->Bind(19, row.met_at_wall);
+      if (!(s = snapshot->Run()).ok()) return s;
+      latest->Reset();
+      latest->Bind(1, position);
+      latest->Bind(2, row.json);
+      if (!(s = latest->Run()).ok()) return s;
+    }
+
+    auto event = db.Prepare(
+        "INSERT INTO events(cycle, wall_time, simulated_time, statistic, kind, message) "
+        "VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
+        &s);
+    if (!event) return s;
+    for (const EventRow& e : r.events) {
+      event->Reset();
+      event->Bind(1, r.cycle);
+      event->Bind(2, e.wall_time);
+      event->Bind(3, e.simulated_time);
+      event->Bind(4, e.statistic);
+      event->Bind(5, e.kind);
+      event->Bind(6, e.message);
+      if (!(s = event->Run()).ok()) return s;
+    }
+
+    auto file = db.Prepare(
+        "INSERT OR REPLACE INTO files VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)", &s);
+    if (!file) return s;
+    for (const FileProgress& f : r.files) {
+      file->Reset();
+      file->Bind(1, f.path);
+      file->Bind(2, f.source);
+      file->Bind(3, f.inode);
+      file->Bind(4, f.offset);
+      file->Bind(5, f.lines);
+      file->Bind(6, f.rows);
+      file->Bind(7, f.bad_lines);
+      file->Bind(8, f.first_time);
+      file->Bind(9, f.last_time);
+      file->Bind(10, JoinColumns(f.columns));
+      file->Bind(11, static_cast<std::int64_t>(f.vanished));
+      if (!(s = file->Run()).ok()) return s;
+    }
+
+    if (!(s = db.Execute("DELETE FROM checkpoint")).ok()) return s;
+    auto item = db.Prepare("INSERT INTO checkpoint(item, state) VALUES (?1, ?2)", &s);
+    if (!item) return s;
+    const auto put = [&](const std::string& name, const std::vector<double>& state) {
+      item->Reset();
+      item->Bind(1, name);
+      item->BindBlob(2, state);
+      return item->Run();
+    };
+    for (const auto& [name, state] : r.checkpoint) {
+      if (!(s = put("state:" + name, state)).ok()) return s;
+    }
+    auto meta = db.Prepare(
+        "INSERT OR REPLACE INTO meta(key, value) VALUES ('checkpoint_cycle', ?1), "
+        "('fingerprint', ?2)",
+        &s);
+    if (!meta) return s;
+    meta->Bind(1, std::to_string(r.cycle));
+    meta->Bind(2, r.fingerprint);
+    return meta->Run();
+  });
+}
+
+std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
+  std::vector<FileProgress> files;
+  auto query = connection_->Prepare(
+      "SELECT path, source, inode, offset, lines, rows, bad_lines, first_time, last_time, "
+      "columns, vanished FROM files ORDER BY rowid",
+      status);
+  if (!query) return files;
+  while (query->Step()) {
+    FileProgress f;
+    f.path = query->ColumnText(0);
+    f.source = query->ColumnText(1);
+    f.inode = query->ColumnInt(2);
+    f.offset = query->ColumnInt(3);
+    f.lines = query->ColumnInt(4);
+    f.rows = query->ColumnInt(5);
+    f.bad_lines = query->ColumnInt(6);
+    f.first_time = query->ColumnDouble(7);
+    f.last_time = query->ColumnDouble(8);
+    f.columns = SplitColumns(query->ColumnText(9));
+    f.vanished = query->ColumnInt(10) != 0;
+    files.push_back(std::move(f));
+  }
+  *status = query->status();
+  return files;
+}
+
+std::optional<StoredCheckpoint> RunStore::ReadCheckpoint(Status* status) {
+  auto meta = connection_->Prepare(
+      "SELECT (SELECT value FROM meta WHERE key = 'checkpoint_cycle'), "
+      "(SELECT value FROM meta WHERE key = 'fingerprint')",
+      status);
+  if (!meta) return std::nullopt;
+  if (!meta->Step() || meta->ColumnText(0).empty()) {
+    *status = meta->status();
+    return std::nullopt;
+  }
+  StoredCheckpoint c;
+  c.cycle = std::stoll(meta->ColumnText(0));
+  c.fingerprint = meta->ColumnText(1);
+  c.files = ReadFiles(status);
+  if (!status->ok()) return std::nullopt;
+  auto items = connection_->Prepare("SELECT item, state FROM checkpoint", status);
+  if (!items) return std::nullopt;
+  while (items->Step()) {
+    std::string name = items->ColumnText(0);
+    if (name.rfind("state:", 0) == 0) c.items[name.substr(6)] = items->ColumnBlob(1);
+  }
+  *status = items->status();
+  if (!status->ok()) return std::nullopt;
+  return c;
+}
+
+std::optional<LatestView> RunStore::ReadLatest(Status* status) {
+  // One read transaction: in WAL mode it sees one committed cycle, never half of the next.
+  *status = connection_->Execute("BEGIN");
+  if (!status->ok()) return std::nullopt;
+  std::optional<LatestView> view;
+  [&] {
+    auto cycle = connection_->Prepare(
+        "SELECT cycle, wall_time, last_sample_time, last_sample_wall_time, run_met, "
+        "(SELECT value FROM meta WHERE key = 'run_name') FROM cycles "
+        "ORDER BY cycle DESC LIMIT 1",
+        status);
+    if (!cycle) return;
+    if (!cycle->Step()) {
+      *status = cycle->status();
+      return;
+    }
+    LatestView v;
+    v.cycle = cycle->ColumnInt(0);
+    v.wall_time = cycle->ColumnDouble(1);
+    v.last_sample_time = cycle->ColumnDouble(2);
+    v.last_sample_wall_time = cycle->ColumnDouble(3);
+    v.run_met = cycle->ColumnInt(4) != 0;
+    v.run_name = cycle->ColumnText(5);
+    auto rows = connection_->Prepare(
+        "SELECT s.statistic, s.state, s.state_reason, s.value, s.half_width, "
+        "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
+        "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
+        "s.target_half_width, s.met_at_time, s.met_at_wall, l.json FROM snapshots s "
+        "JOIN latest l ON l.position = s.position WHERE s.cycle = ?1 ORDER BY s.position",
+        status);
+    if (!rows) return;
+    rows->Bind(1, v.cycle);
+    while (rows->Step()) {
+      SnapshotRow row;
+      row.statistic = rows->ColumnText(0);
+      row.state = rows->ColumnText(1);
+      row.state_reason = rows->ColumnText(2);
+      row.value = rows->ColumnDouble(3);
+      row.half_width = rows->ColumnDouble(4);
+      row.relative_half_width = rows->ColumnDouble(5);
+      row.integrated_time = rows->ColumnDouble(6);
+      row.effective_samples = rows->ColumnDouble(7);
+      row.warmup_end_time = rows->ColumnDouble(8);
+      row.samples_used = rows->ColumnInt(9);
+      row.last_time = rows->ColumnDouble(10);
+      row.confidence = rows->ColumnDouble(11);
+      row.target_kind = rows->ColumnText(12);
+      row.target_value = rows->ColumnDouble(13);
+      row.target_half_width = rows->ColumnDouble(14);
+      row.met_at_time = rows->ColumnDouble(15);
+      row.met_at_wall = rows->ColumnDouble(16);
+      row.json = rows->ColumnText(17);
+      v.statistics.push_back(std::move(row));
+    }
+    if (!(*status = rows->status()).ok()) return;
+    v.files = ReadFiles(status);
+    if (status->ok()) view = std::move(v);
+  }();
+  connection_->Execute("COMMIT");
+  return view;
+}
+
+std::vector<EventRow> RunStore::ReadEvents(std::int64_t after_id, int limit, Status* status) {
+  std::vector<EventRow> events;
+  auto query = connection_->Prepare(
+      "SELECT id, cycle, wall_time, simulated_time, statistic, kind, message FROM events "
+      "WHERE id > ?1 ORDER BY id LIMIT ?2",
+      status);
+  if (!query) return events;
+  query->Bind(1, after_id);
+  query->Bind(2, static_cast<std::int64_t>(limit));
+  while (query->Step()) {
+    EventRow e;
+    e.id = query->ColumnInt(0);
+    e.cycle = query->ColumnInt(1);
+    e.wall_time = query->ColumnDouble(2);
+    e.simulated_time = query->ColumnDouble(3);
+    e.statistic = query->ColumnText(4);
+    e.kind = query->ColumnText(5);
+    e.message = query->ColumnText(6);
+    events.push_back(std::move(e));
+  }
+  *status = query->status();
+  return events;
+}
+
+Status RunStore::CheckIntegrity() {
+  Status status;
+  auto query = connection_->Prepare("PRAGMA integrity_check", &status);
+  if (!query) return status;
+  std::string result;
+  while (query->Step()) result += (result.empty() ? "" : "; ") + query->ColumnText(0);
+  if (!query->status().ok()) return query->status();
+  return result == "ok" ? Status::Ok() : Status::Error("store " + path() + ": " + result);
+}
+
+}  // namespace plateau

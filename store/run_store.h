@@ -1,0 +1,134 @@
+// The SQLite store of one run (WAL mode): a versioned schema with migrations; per evaluation cycle
+// the snapshots, events, per-file ingest progress and the checkpoint of all estimator state,
+// written in one transaction so that a reader never sees half a cycle and a restart resumes from a
+// consistent point. Holds no business rules. Not thread-safe: one owner per connection.
+#ifndef PLATEAU_STORE_RUN_STORE_H_
+#define PLATEAU_STORE_RUN_STORE_H_
+
+#include <cstdint>
+#include <map>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/status.h"
+#include "store/sqlite_connection.h"
+
+namespace plateau {
+
+// Where the reading of one probe file stands, as of a checkpoint.
+struct FileProgress {
+  std::string path;
+  std::string source;
+  std::int64_t inode = 0;
+  std::int64_t offset = 0;  // bytes of complete lines consumed
+  std::int64_t lines = 0;
+  std::int64_t rows = 0;
+  std::int64_t bad_lines = 0;
+  double first_time = 0.0;  // NaN before the first row
+  double last_time = 0.0;
+  std::vector<std::string> columns;  // the layout the file was read with; empty before its header
+  bool vanished = false;
+};
+
+// One statistic at one cycle: the numbers worth a history, and the full JSON object of status.
+struct SnapshotRow {
+  std::string statistic;
+  std::string state;
+  std::string state_reason;
+  double value = 0.0;
+  double half_width = 0.0;
+  double relative_half_width = 0.0;
+  double integrated_time = 0.0;
+  double effective_samples = 0.0;
+  double warmup_end_time = 0.0;
+  std::int64_t samples_used = 0;
+  double last_time = 0.0;
+  double confidence = 0.0;
+  std::string target_kind;  // relative, absolute, or empty without a target
+  double target_value = 0.0;
+  double target_half_width = 0.0;
+  double met_at_time = 0.0;  // NaN while not met
+  double met_at_wall = 0.0;
+  std::string json;  // the full status object; kept for the newest cycle only
+};
+
+struct EventRow {
+  std::int64_t id = 0;  // assigned by the store
+  std::int64_t cycle = 0;
+  double wall_time = 0.0;
+  double simulated_time = 0.0;
+  std::string statistic;  // empty for a run-wide event
+  std::string kind;       // met, lost, run_met, run_lost, ...
+  std::string message;
+};
+
+struct CycleRecord {
+  std::int64_t cycle = 0;
+  double wall_time = 0.0;
+  double last_sample_time = 0.0;       // NaN before any sample
+  double last_sample_wall_time = 0.0;  // when the newest sample was read
+  bool run_met = false;
+  std::string fingerprint;  // identity of what the checkpoint's estimator state means
+  std::vector<SnapshotRow> snapshots;
+  std::vector<EventRow> events;
+  std::vector<FileProgress> files;
+  std::map<std::string, std::vector<double>> checkpoint;  // item -> state
+};
+
+// The newest complete cycle, as status and check read it.
+struct LatestView {
+  std::string run_name;
+  std::int64_t cycle = 0;
+  double wall_time = 0.0;
+  double last_sample_time = 0.0;
+  double last_sample_wall_time = 0.0;
+  bool run_met = false;
+  std::vector<SnapshotRow> statistics;  // in configuration order, with json
+  std::vector<FileProgress> files;
+};
+
+struct StoredCheckpoint {
+  std::int64_t cycle = 0;
+  std::string fingerprint;
+  std::vector<FileProgress> files;
+  std::map<std::string, std::vector<double>> items;
+};
+
+class RunStore {
+ public:
+  static constexpr int kSchemaVersion = 1;
+
+  // Opens for writing (creating and migrating the schema) or for reading only. nullptr with *status
+  // set when the file cannot be opened, is not a plateau store, or comes from a newer schema.
+  static std::unique_ptr<RunStore> OpenForWriting(const std::string& path,
+                                                  const std::string& run_name, Status* status);
+  static std::unique_ptr<RunStore> OpenForReading(const std::string& path, Status* status);
+
+  // Writes one cycle in one transaction (all or nothing). Event ids are not returned.
+  Status WriteCycle(const CycleRecord& record);
+  // The newest checkpoint; nullopt for a new store.
+  std::optional<StoredCheckpoint> ReadCheckpoint(Status* status);
+  // The newest cycle, read in one transaction; nullopt (with an ok status) before the first cycle.
+  std::optional<LatestView> ReadLatest(Status* status);
+  // Events after `after_id`, oldest first, at most `limit`.
+  std::vector<EventRow> ReadEvents(std::int64_t after_id, int limit, Status* status);
+  // `PRAGMA integrity_check`: ok, or what SQLite found.
+  Status CheckIntegrity();
+
+  const std::string& path() const { return connection_->path(); }
+
+ private:
+  explicit RunStore(std::unique_ptr<SqliteConnection> connection)
+      : connection_(std::move(connection)) {}
+  Status Migrate(const std::string& run_name);
+  Status SchemaVersion(int* version);
+  std::vector<FileProgress> ReadFiles(Status* status);
+
+  std::unique_ptr<SqliteConnection> connection_;
+};
+
+}  // namespace plateau
+
+#endif  // PLATEAU_STORE_RUN_STORE_H_
