@@ -2,6 +2,7 @@
 
 #include <charconv>
 #include <cmath>
+#include <cstdio>
 #include <cstring>
 
 namespace plateau {
@@ -50,6 +51,22 @@ NumberStatus ParseNumber(const char* begin, const char* end, double* value) {
   if (ec == std::errc::result_out_of_range) return NumberStatus::kOutOfRange;
   if (ec != std::errc() || ptr != end) return NumberStatus::kNotNumber;
   return std::isfinite(*value) ? NumberStatus::kOk : NumberStatus::kNotFinite;
+}
+
+// A token as it can be shown in a message: bytes outside printable ASCII become \xNN, so that a
+// binary line reads as what it is.
+std::string Printable(std::string_view token) {
+  std::string out;
+  for (const unsigned char c : token) {
+    if (c >= 0x20 && c < 0x7f) {
+      out += static_cast<char>(c);
+    } else {
+      char escaped[5];
+      std::snprintf(escaped, sizeof escaped, "\\x%02x", c);
+      out += escaped;
+    }
+  }
+  return out;
 }
 
 // Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
@@ -280,7 +297,7 @@ bool RowParser::ParseNumbers(std::string_view line, std::string* reason) {
       const std::size_t column = values_.size();
       std::string where = "value " + std::to_string(column + 1);
       if (column < names_.size()) where += " (" + names_[column] + ")";
-      std::string token(p, std::min<std::size_t>(token_end - p, 40));
+      const std::string token = Printable(std::string_view(p, token_end - p).substr(0, 40));
       const char* what = status == NumberStatus::kNotFinite    ? "not a finite number"
                          : status == NumberStatus::kOutOfRange ? "out of the range of a double"
                                                                : "not a number";

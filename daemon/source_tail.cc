@@ -1,6 +1,8 @@
 #include "daemon/source_tail.h"
 
+#include <fcntl.h>
 #include <glob.h>
+#include <unistd.h>
 #include <sys/stat.h>
 
 #include <algorithm>
@@ -36,6 +38,34 @@ std::string FixedFolder(const std::string& pattern) {
   const std::size_t wildcard = pattern.find_first_of("*?[");
   const std::string fixed = wildcard == std::string::npos ? pattern : pattern.substr(0, wildcard);
   return fs::path(fixed).parent_path().string();
+}
+
+constexpr std::uint64_t kSignatureBytes = 64;
+
+// The up to 64 bytes that end at `offset`; empty when the file cannot be read there.
+std::string SignatureAt(const std::string& path, std::uint64_t offset) {
+  const std::uint64_t start = offset > kSignatureBytes ? offset - kSignatureBytes : 0;
+  std::string bytes(offset - start, '\0');
+  const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+  if (fd < 0) return "";
+  const ssize_t n = ::pread(fd, bytes.data(), bytes.size(), static_cast<off_t>(start));
+  ::close(fd);
+  return n == static_cast<ssize_t>(bytes.size()) ? bytes : "";
+}
+
+std::string Hex(const std::string& bytes) {
+  static const char* digits = "0123456789abcdef";
+  std::string hex;
+  for (const unsigned char c : bytes) hex += {digits[c >> 4], digits[c & 15]};
+  return hex;
+}
+
+std::string Unhex(const std::string& hex) {
+  std::string bytes;
+  for (std::size_t i = 0; i + 1 < hex.size(); i += 2) {
+    bytes += static_cast<char>(std::stoi(hex.substr(i, 2), nullptr, 16));
+  }
+  return bytes;
 }
 
 std::string Joined(const std::vector<std::string>& names) {
@@ -187,16 +217,20 @@ bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
   const std::uint64_t read_to = file.parser.consumed_bytes() + file.parser.pending_bytes();
   const bool replaced = inode != file.inode || file.vanished;
   const bool truncated = *size < read_to;
-  if (replaced || truncated) {
+  const bool rewritten = !replaced && !truncated && !file.signature.empty() &&
+                         SignatureAt(file.path, file.parser.consumed_bytes()) != file.signature;
+  if (replaced || truncated || rewritten) {
     log_->warn("{} was {} (size {} bytes, {} read); reading it again from the start: samples "
                "already recorded are skipped by time",
-               file.path, replaced ? "replaced" : "truncated", *size, read_to);
+               file.path, replaced ? "replaced" : truncated ? "truncated" : "rewritten", *size,
+               read_to);
     file.inode = inode;
     file.parser = RowParser();
     file.vanished = false;
     file.layout_mismatch = false;
     file.bad_lines_logged = 0;
     file.bad_lines_reported = 0;
+    file.signature.clear();
   }
   return true;
 }
@@ -215,6 +249,7 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
     log_->warn("{}; will try again at the next poll", read.error);
     return false;
   }
+  file.signature = SignatureAt(file.path, file.parser.consumed_bytes());
   const std::uint64_t unreported = file.parser.bad_lines() - file.bad_lines_reported;
   if (unreported > 0 && file.bad_lines_logged >= kBadLinesLoggedPerFile) {
     log_->warn("{}: {} more bad lines skipped ({} in all)", file.path, unreported,
@@ -254,7 +289,10 @@ void SourceTail::Checkpoint(CycleRecord& record) const {
     p.bad_lines = has_layout ? static_cast<std::int64_t>(f.parser.bad_lines()) : 0;
     p.first_time = f.first_time;
     p.last_time = f.last_time;
-    if (has_layout) p.columns = f.parser.column_names();
+    if (has_layout) {
+      p.columns = f.parser.column_names();
+      p.signature = Hex(f.signature);
+    }
     p.vanished = f.vanished;
     record.files.push_back(std::move(p));
   }
@@ -277,6 +315,7 @@ void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
     file.vanished = p.vanished;
     file.parser.Resume(p.columns, p.lines, p.offset, p.rows, p.bad_lines);
     file.bad_lines_reported = static_cast<std::uint64_t>(p.bad_lines);
+    file.signature = Unhex(p.signature);
     if (!p.columns.empty() && !source_) {
       const std::vector<std::string>& names = config_.columns.empty() ? p.columns : config_.columns;
       StartSource(names, p.path);

@@ -64,6 +64,7 @@ class SourceTail {
     bool layout_mismatch = false;  // columns differ from the source's: the file is ignored
     std::uint64_t bad_lines_logged = 0;
     std::uint64_t bad_lines_reported = 0;
+    std::string signature;  // the bytes before the consumed offset, as last read
   };
   class FileSink;
 

@@ -43,6 +43,7 @@ exit status: 0 after a clean stop; 2 when it cannot start (the reason is on stde
 }
 
 int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  InstallEarlyStopHandler();
   std::string config_path;
   std::optional<double> evaluate_every;
   std::optional<double> poll_every;

@@ -17,7 +17,21 @@ std::chrono::steady_clock::duration Seconds(double s) {
       std::chrono::duration<double>(s));
 }
 
+volatile std::sig_atomic_t early_stop_signal = 0;
+
+extern "C" void RememberStopSignal(int signal) { early_stop_signal = signal; }
+
 }  // namespace
+
+void InstallEarlyStopHandler() {
+  struct sigaction action {};
+  action.sa_handler = RememberStopSignal;
+  sigemptyset(&action.sa_mask);
+  sigaction(SIGINT, &action, nullptr);
+  sigaction(SIGTERM, &action, nullptr);
+}
+
+int EarlyStopSignal() { return early_stop_signal; }
 
 double WallSeconds() {
   return std::chrono::duration<double>(std::chrono::system_clock::now().time_since_epoch())
@@ -69,14 +83,18 @@ void WatchLoop::ReadInotify() {
                                 }
                                 return;
                               }
-                              if (!poll_soon_) SchedulePoll(kInotifyDelay);
+                              // Never later than already planned: the store and the log live
+                              // in the run folder, and their own writes raise events too.
+                              const auto soon = std::chrono::steady_clock::now() +
+                                                Seconds(kInotifyDelay);
+                              if (soon < next_poll_) SchedulePoll(kInotifyDelay);
                               ReadInotify();
                             });
 }
 
 void WatchLoop::SchedulePoll(double seconds) {
-  poll_soon_ = seconds < poll_seconds_;
-  poll_timer_.expires_after(Seconds(seconds));
+  next_poll_ = std::chrono::steady_clock::now() + Seconds(seconds);
+  poll_timer_.expires_at(next_poll_);
   poll_timer_.async_wait([this](const boost::system::error_code& error) {
     if (!error) PollNow();
   });
@@ -115,6 +133,10 @@ int WatchLoop::Run() {
   signals_.async_wait([this](const boost::system::error_code& error, int signal) {
     if (!error) Stop(signal);
   });
+  if (const int signal = EarlyStopSignal()) {
+    Stop(signal);
+    return exit_code_;
+  }
   StartInotify();
   PollNow();
   monitor_.Evaluate(WallSeconds());

@@ -12,6 +12,7 @@
 #include <spdlog/spdlog.h>
 
 #include <array>
+#include <chrono>
 #include <memory>
 #include <optional>
 #include <set>
@@ -50,12 +51,18 @@ class WatchLoop {
   std::optional<boost::asio::posix::stream_descriptor> inotify_;
   std::array<char, 4096> inotify_buffer_{};
   std::set<std::string> watched_;
-  bool poll_soon_ = false;
+  std::chrono::steady_clock::time_point next_poll_;
   int exit_code_ = 0;
 };
 
 // Seconds since the epoch, the wall-clock time stamped on cycles and events.
 double WallSeconds();
+
+// Catches SIGINT and SIGTERM from the very start of the process (before the loop exists, while the
+// config and the store are opened), so that a stop asked for early still ends cleanly: the loop
+// sees it as soon as it runs. Returns the signal caught so far, or 0.
+void InstallEarlyStopHandler();
+int EarlyStopSignal();
 
 }  // namespace plateau
 

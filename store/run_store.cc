@@ -47,7 +47,8 @@ CREATE TABLE files(
   first_time REAL,
   last_time REAL,
   columns TEXT NOT NULL,
-  vanished INTEGER NOT NULL);
+  vanished INTEGER NOT NULL,
+  signature TEXT NOT NULL);
 CREATE TABLE checkpoint(item TEXT PRIMARY KEY, state BLOB NOT NULL);
 INSERT INTO meta(key, value) VALUES ('application', 'plateau');
 )sql"};
@@ -242,7 +243,8 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     }
 
     auto file = db.Prepare(
-        "INSERT OR REPLACE INTO files VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)", &s);
+        "INSERT OR REPLACE INTO files VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
+        &s);
     if (!file) return s;
     for (const FileProgress& f : r.files) {
       file->Reset();
@@ -257,6 +259,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       file->Bind(9, f.last_time);
       file->Bind(10, JoinColumns(f.columns));
       file->Bind(11, static_cast<std::int64_t>(f.vanished));
+      file->Bind(12, f.signature);
       if (!(s = file->Run()).ok()) return s;
     }
 
@@ -287,7 +290,7 @@ std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
   std::vector<FileProgress> files;
   auto query = connection_->Prepare(
       "SELECT path, source, inode, offset, lines, rows, bad_lines, first_time, last_time, "
-      "columns, vanished FROM files ORDER BY rowid",
+      "columns, vanished, signature FROM files ORDER BY rowid",
       status);
   if (!query) return files;
   while (query->Step()) {
@@ -303,6 +306,7 @@ std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
     f.last_time = query->ColumnDouble(8);
     f.columns = SplitColumns(query->ColumnText(9));
     f.vanished = query->ColumnInt(10) != 0;
+    f.signature = query->ColumnText(11);
     files.push_back(std::move(f));
   }
   *status = query->status();

@@ -30,6 +30,9 @@ struct FileProgress {
   double last_time = 0.0;
   std::vector<std::string> columns;  // the layout the file was read with; empty before its header
   bool vanished = false;
+  // The bytes just before `offset`, hex-encoded: a file rewritten and grown past the offset between
+  // two reads keeps its inode and its size lead, but not these bytes.
+  std::string signature;
 };
 
 // One statistic at one cycle: the numbers worth a history, and the full JSON object of status.

@@ -1,0 +1,126 @@
+#include "config/config_loader.h"
+
+#include <gtest/gtest.h>
+
+#include <string>
+#include <vector>
+
+namespace plateau {
+namespace {
+
+// Loads `text` as /runs/ch420/run.yaml and returns the errors as strings.
+std::vector<std::string> Errors(const std::string& text) {
+  std::vector<ConfigError> errors;
+  EXPECT_FALSE(ParseRunConfig(text, "/runs/ch420/run.yaml", &errors).has_value());
+  std::vector<std::string> out;
+  for (const ConfigError& e : errors) out.push_back(e.ToString());
+  return out;
+}
+
+const char* kValid = R"(run: ch420
+sources:
+  - name: wall
+    files: probes/*/wall.dat
+statistics:
+  - name: tau_lower
+    kind: mean
+    columns: [tau_lower]
+    target: {relative: 0.01}
+  - kind: covariance
+    columns: [u, v]
+    target: {absolute: 2.0e-6, confidence: 0.99}
+    minimum_time: 20
+    reference: -2.8e-4
+)";
+
+TEST(ConfigLoader, ValidConfigGivesPlainStructsWithDefaults) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(kValid, "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << (errors.empty() ? "" : errors.front().ToString());
+  EXPECT_EQ(c->run_name, "ch420");
+  EXPECT_EQ(c->store_path, "/runs/ch420/plateau.db");  // beside the config
+  EXPECT_EQ(c->sources.at(0).files, "/runs/ch420/probes/*/wall.dat");
+  EXPECT_EQ(c->evaluate_every, 60.0);
+  EXPECT_EQ(c->stop_rule.confirmations, 3);
+  ASSERT_EQ(c->statistics.size(), 2u);
+  EXPECT_EQ(c->statistics[0].source, "wall");  // the only source
+  EXPECT_EQ(c->statistics[0].target->kind, Target::Kind::kRelative);
+  EXPECT_EQ(c->statistics[0].target->confidence, 0.95);
+  EXPECT_EQ(c->statistics[1].request.name, "cov(u,v)");
+  EXPECT_EQ(c->statistics[1].target->kind, Target::Kind::kAbsolute);
+  EXPECT_EQ(c->statistics[1].target->confidence, 0.99);
+  EXPECT_EQ(c->statistics[1].minimum_time, 20.0);
+  EXPECT_EQ(*c->statistics[1].reference, -2.8e-4);
+}
+
+TEST(ConfigLoader, UnknownKeyIsAnErrorAtItsLineAndColumn) {
+  EXPECT_EQ(Errors("run: x\nevaluate_evry: 5\nsources: [{name: a, files: f}]\n"
+                   "statistics: [{columns: t}]\n"),
+            std::vector<std::string>{
+                "/runs/ch420/run.yaml:2:1: unknown key 'evaluate_evry' in the run settings; "
+                "expected one of run, store, evaluate_every, poll_every, confidence, batches, "
+                "warmup, confirmations, minimum_effective_samples, drift_p_value, blocks, "
+                "sources or statistics"});
+}
+
+TEST(ConfigLoader, TypoInsideAStatisticPointsAtTheKey) {
+  const auto errors = Errors(
+      "sources:\n  - name: wall\n    files: w.dat\nstatistics:\n  - kind: mean\n"
+      "    columns: [u]\n    taget: {relative: 0.01}\n");
+  ASSERT_EQ(errors.size(), 1u);
+  EXPECT_EQ(errors[0].substr(0, 61),
+            "/runs/ch420/run.yaml:7:5: unknown key 'taget' in a statistic;");
+}
+
+TEST(ConfigLoader, WrongValuesSayWhatWasExpected) {
+  const auto errors = Errors(
+      "poll_every: soon\nconfidence: 95\nsources:\n  - name: wall\n    files: w.dat\n"
+      "statistics:\n  - kind: avg\n    columns: [u]\n  - kind: covariance\n    columns: [u]\n"
+      "  - columns: [v]\n    source: wal\n    target: {relative: -1}\n");
+  ASSERT_EQ(errors.size(), 6u);
+  EXPECT_EQ(errors[0],
+            "/runs/ch420/run.yaml:1:13: poll_every must be a number of seconds above 0, got "
+            "'soon'");
+  EXPECT_EQ(errors[1],
+            "/runs/ch420/run.yaml:2:13: confidence must be a fraction between 0 and 1, such as "
+            "0.95, got '95'");
+  EXPECT_EQ(errors[2],
+            "/runs/ch420/run.yaml:7:11: kind 'avg' is not known; expected mean, variance, rms, "
+            "covariance, third_moment or tke");
+  EXPECT_EQ(errors[3], "/runs/ch420/run.yaml:10:14: covariance takes 2 columns, got 1");
+  EXPECT_EQ(errors[4],
+            "/runs/ch420/run.yaml:12:13: statistic 'v' names source 'wal', which is not defined; "
+            "sources: wall");
+  EXPECT_EQ(errors[5],
+            "/runs/ch420/run.yaml:13:24: relative must be a fraction of the value above 0, such "
+            "as 0.01 for 1 %, got '-1'");
+}
+
+TEST(ConfigLoader, BrokenYamlIsReportedWithItsPlace) {
+  const auto errors = Errors("sources:\n  - name: [wall\n");
+  ASSERT_EQ(errors.size(), 1u);
+  EXPECT_EQ(errors[0].substr(0, 25), "/runs/ch420/run.yaml:3:1:");
+  EXPECT_NE(errors[0].find("not valid YAML"), std::string::npos);
+}
+
+TEST(ConfigLoader, MissingPartsAndRepeatedNames) {
+  const auto errors = Errors(
+      "sources:\n  - name: a\n    files: a.dat\n  - name: a\n    files: b.dat\n"
+      "statistics:\n  - source: a\n    columns: [u]\n  - source: a\n    columns: [u]\n"
+      "  - columns: [w]\n");
+  ASSERT_EQ(errors.size(), 3u);
+  EXPECT_EQ(errors[0], "/runs/ch420/run.yaml:4:5: source name 'a' repeats");
+  EXPECT_EQ(errors[1], "/runs/ch420/run.yaml:9:5: statistic name 'u' repeats; give one a name");
+  EXPECT_EQ(errors[2], "/runs/ch420/run.yaml:11:5: statistic 'w' needs a source (there are "
+                       "several)");
+}
+
+TEST(ConfigLoader, UnreadableFileHasNoLineNumber) {
+  std::vector<ConfigError> errors;
+  EXPECT_FALSE(LoadRunConfig("/nonexistent/run.yaml", &errors).has_value());
+  ASSERT_EQ(errors.size(), 1u);
+  EXPECT_EQ(errors[0].ToString(), "/nonexistent/run.yaml: cannot read the config file");
+}
+
+}  // namespace
+}  // namespace plateau

@@ -1,0 +1,107 @@
+#include "core/convergence_tracker.h"
+
+#include <gtest/gtest.h>
+
+namespace plateau {
+namespace {
+
+StatisticEstimate Estimated(double value, double half_width, std::uint64_t samples) {
+  StatisticEstimate e;
+  e.name = "tau";
+  e.state = EstimateState::kEstimated;
+  e.value = value;
+  e.half_width = half_width;
+  e.relative_half_width = half_width / value;
+  e.confidence = 0.95;
+  e.samples_total = samples;
+  e.samples_used = samples;
+  e.first_time = 0.0;
+  e.warmup_end_time = 1.0;
+  e.last_time = samples * 0.01;
+  e.effective_samples = 500;
+  return e;
+}
+
+ConvergenceTracker OnePercent() {
+  return ConvergenceTracker("tau", Target{Target::Kind::kRelative, 0.01, 0.95},
+                            StopRuleSettings{3, 100, 0.0});
+}
+
+TEST(ConvergenceTracker, MetOnlyAfterThreeConfirmationsWithNewData) {
+  ConvergenceTracker t = OnePercent();
+  EXPECT_FALSE(t.Update(Estimated(2.0, 0.03, 1000), 10.0));  // 1.5 %: converging
+  EXPECT_EQ(t.state(), ConvergenceState::kConverging);
+  EXPECT_FALSE(t.Update(Estimated(2.0, 0.015, 2000), 20.0));
+  EXPECT_EQ(t.reason(), "target reached, confirmation 1 of 3");
+  EXPECT_FALSE(t.Update(Estimated(2.0, 0.015, 2000), 25.0));  // same data: not a confirmation
+  EXPECT_EQ(t.consecutive(), 1);
+  EXPECT_FALSE(t.Update(Estimated(2.0, 0.014, 3000), 30.0));
+  const auto met = t.Update(Estimated(2.0, 0.013, 4000), 40.0);
+  ASSERT_TRUE(met);
+  EXPECT_EQ(met->kind, ConvergenceEvent::Kind::kMet);
+  EXPECT_EQ(t.state(), ConvergenceState::kMet);
+  EXPECT_EQ(t.met_at_wall(), 40.0);
+  EXPECT_EQ(t.met_at_time(), 40.0);
+  EXPECT_FALSE(t.Update(Estimated(2.0, 0.012, 5000), 50.0));  // stays met, no second event
+}
+
+TEST(ConvergenceTracker, LosingTheTargetIsAnEventAndNeedsFreshConfirmations) {
+  ConvergenceTracker t = OnePercent();
+  for (int i = 1; i <= 3; ++i) t.Update(Estimated(2.0, 0.01, 1000 * i), i);
+  ASSERT_TRUE(t.met());
+  const auto lost = t.Update(Estimated(2.0, 0.03, 4000), 4.0);
+  ASSERT_TRUE(lost);
+  EXPECT_EQ(lost->kind, ConvergenceEvent::Kind::kLost);
+  EXPECT_FALSE(t.met());
+  EXPECT_EQ(t.consecutive(), 0);
+}
+
+TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet) {
+  ConvergenceTracker t = OnePercent();
+  StatisticEstimate drifting = Estimated(2.0, 0.001, 1000);
+  drifting.drift_detected = true;
+  t.Update(drifting, 1.0);
+  EXPECT_EQ(t.state(), ConvergenceState::kDrifting);
+  StatisticEstimate few = Estimated(2.0, 0.001, 2000);
+  few.effective_samples = 40;
+  t.Update(few, 2.0);
+  EXPECT_EQ(t.reason(), "only 40 effective samples, the rule asks for 100");
+  StatisticEstimate short_batches = Estimated(2.0, 0.001, 3000);
+  short_batches.decision.batches_too_short = true;
+  t.Update(short_batches, 3.0);
+  EXPECT_EQ(t.reason(), "batches are shorter than ten integrated times");
+  EXPECT_EQ(t.consecutive(), 0);
+}
+
+TEST(ConvergenceTracker, WarmupFillingHalfTheDataIsWarmingUp) {
+  ConvergenceTracker t = OnePercent();
+  StatisticEstimate e = Estimated(2.0, 0.001, 1000);
+  e.warmup_end_time = 0.47 * e.last_time;
+  t.Update(e, 1.0);
+  EXPECT_EQ(t.state(), ConvergenceState::kWarmingUp);
+}
+
+TEST(ConvergenceTracker, AbsoluteTargetAndMinimumAveragingTime) {
+  ConvergenceTracker t("cov", Target{Target::Kind::kAbsolute, 0.05, 0.95},
+                       StopRuleSettings{1, 100, 50.0});
+  t.Update(Estimated(-0.3, 0.04, 2000), 1.0);  // averaged 19 time units of 50
+  EXPECT_EQ(t.state(), ConvergenceState::kConverging);
+  EXPECT_EQ(t.reason(), "averaged over 19 time units, the minimum is 50");
+  EXPECT_TRUE(t.Update(Estimated(-0.3, 0.04, 6000), 2.0));
+  EXPECT_EQ(t.TargetHalfWidth(-0.3), 0.05);
+}
+
+TEST(ConvergenceTracker, NoTargetIsMonitoredAndStateRoundTrips) {
+  ConvergenceTracker monitored("u", std::nullopt, StopRuleSettings{});
+  monitored.Update(Estimated(2.0, 0.001, 1000), 1.0);
+  EXPECT_EQ(monitored.state(), ConvergenceState::kMonitored);
+  ConvergenceTracker t = OnePercent();
+  for (int i = 1; i <= 3; ++i) t.Update(Estimated(2.0, 0.01, 1000 * i), i);
+  ConvergenceTracker restored = OnePercent();
+  ASSERT_TRUE(restored.RestoreState(t.SaveState()));
+  EXPECT_EQ(restored.SaveState(), t.SaveState());
+  EXPECT_TRUE(restored.met());
+}
+
+}  // namespace
+}  // namespace plateau

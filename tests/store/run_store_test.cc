@@ -1,0 +1,146 @@
+#include "store/run_store.h"
+
+#include <gtest/gtest.h>
+#include <sqlite3.h>
+#include <unistd.h>
+
+#include <cmath>
+#include <filesystem>
+
+namespace plateau {
+namespace {
+
+namespace fs = std::filesystem;
+
+class RunStoreTest : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    dir_ = fs::temp_directory_path() / ("plateau_store_" + std::to_string(::getpid()) + "_" +
+                                        ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    fs::create_directories(dir_);
+    path_ = (dir_ / "plateau.db").string();
+  }
+  void TearDown() override { fs::remove_all(dir_); }
+
+  CycleRecord Cycle(std::int64_t n) {
+    CycleRecord r;
+    r.cycle = n;
+    r.wall_time = 1000.0 + n;
+    r.last_sample_time = 10.0 * n;
+    r.last_sample_wall_time = 999.0 + n;
+    r.fingerprint = "fp";
+    SnapshotRow s;
+    s.statistic = "tau";
+    s.state = "converging";
+    s.state_reason = "half-width 2 %";
+    s.value = 0.28;
+    s.half_width = std::nan("");
+    s.target_kind = "relative";
+    s.target_value = 0.01;
+    s.json = "{\"name\":\"tau\",\"cycle\":" + std::to_string(n) + "}";
+    r.snapshots = {s};
+    r.events = {{0, 0, 1000.0 + n, 10.0 * n, "tau", "met", "tau met its target"}};
+    FileProgress f;
+    f.path = "/p/wall.dat";
+    f.source = "wall";
+    f.inode = 77;
+    f.offset = 1234 * n;
+    f.columns = {"time", "tau"};
+    f.first_time = std::nan("");
+    r.files = {f};
+    r.checkpoint["history:tau"] = {1.0, 2.5, -3e-300, std::nan("")};
+    return r;
+  }
+
+  fs::path dir_;
+  std::string path_;
+};
+
+TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
+  Status status;
+  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(store) << status.message();
+  ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
+  ASSERT_TRUE(store->WriteCycle(Cycle(2)).ok());
+  auto reader = RunStore::OpenForReading(path_, &status);
+  ASSERT_TRUE(reader) << status.message();
+  const auto latest = reader->ReadLatest(&status);
+  ASSERT_TRUE(latest) << status.message();
+  EXPECT_EQ(latest->run_name, "ch420");
+  EXPECT_EQ(latest->cycle, 2);
+  ASSERT_EQ(latest->statistics.size(), 1u);
+  EXPECT_EQ(latest->statistics[0].json, "{\"name\":\"tau\",\"cycle\":2}");
+  EXPECT_EQ(latest->statistics[0].state_reason, "half-width 2 %");
+  EXPECT_TRUE(std::isnan(latest->statistics[0].half_width));
+  EXPECT_EQ(latest->files.at(0).offset, 2468);
+  const auto checkpoint = reader->ReadCheckpoint(&status);
+  ASSERT_TRUE(checkpoint);
+  EXPECT_EQ(checkpoint->cycle, 2);
+  EXPECT_EQ(checkpoint->fingerprint, "fp");
+  const std::vector<double>& h = checkpoint->items.at("history:tau");
+  ASSERT_EQ(h.size(), 4u);
+  EXPECT_EQ(h[2], -3e-300);  // bit for bit
+  EXPECT_TRUE(std::isnan(h[3]));
+  const auto events = reader->ReadEvents(0, 10, &status);
+  ASSERT_EQ(events.size(), 2u);
+  EXPECT_EQ(events[1].cycle, 2);
+  EXPECT_TRUE(reader->CheckIntegrity().ok());
+}
+
+TEST_F(RunStoreTest, ReopeningKeepsTheDataAndTheSchema) {
+  Status status;
+  {
+    auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+    ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
+  }
+  auto again = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(again) << status.message();
+  const auto checkpoint = again->ReadCheckpoint(&status);
+  ASSERT_TRUE(checkpoint);
+  EXPECT_EQ(checkpoint->cycle, 1);
+}
+
+TEST_F(RunStoreTest, NewerSchemaIsRefusedWithItsVersion) {
+  Status status;
+  { auto store = RunStore::OpenForWriting(path_, "ch420", &status); }
+  sqlite3* db = nullptr;
+  sqlite3_open(path_.c_str(), &db);
+  sqlite3_exec(db, "UPDATE meta SET value = '99' WHERE key = 'schema_version'", nullptr, nullptr,
+               nullptr);
+  sqlite3_close(db);
+  EXPECT_FALSE(RunStore::OpenForWriting(path_, "ch420", &status));
+  EXPECT_NE(status.message().find("schema version 99"), std::string::npos);
+  EXPECT_FALSE(RunStore::OpenForReading(path_, &status));
+}
+
+TEST_F(RunStoreTest, ForeignDatabaseAndMissingFileAreClearErrors) {
+  sqlite3* db = nullptr;
+  sqlite3_open(path_.c_str(), &db);
+  sqlite3_exec(db, "CREATE TABLE results(x)", nullptr, nullptr, nullptr);
+  sqlite3_close(db);
+  Status status;
+  EXPECT_FALSE(RunStore::OpenForWriting(path_, "ch420", &status));
+  EXPECT_EQ(status.message(), "store " + path_ + " is not a plateau store");
+  EXPECT_FALSE(RunStore::OpenForReading((dir_ / "none.db").string(), &status));
+  EXPECT_NE(status.message().find("unable to open"), std::string::npos);
+}
+
+TEST_F(RunStoreTest, ReaderNeverSeesHalfACycle) {
+  // A read transaction opened between two writes keeps seeing the first write (WAL snapshot).
+  Status status;
+  auto writer = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(writer->WriteCycle(Cycle(1)).ok());
+  auto reader = RunStore::OpenForReading(path_, &status);
+  for (std::int64_t n = 2; n < 40; ++n) {
+    ASSERT_TRUE(writer->WriteCycle(Cycle(n)).ok());
+    const auto latest = reader->ReadLatest(&status);
+    ASSERT_TRUE(latest);
+    // Whatever cycle it sees, its snapshot JSON and file offset belong to that same cycle.
+    EXPECT_EQ(latest->statistics.at(0).json,
+              "{\"name\":\"tau\",\"cycle\":" + std::to_string(latest->cycle) + "}");
+    EXPECT_EQ(latest->files.at(0).offset, 1234 * latest->cycle);
+  }
+}
+
+}  // namespace
+}  // namespace plateau
