@@ -115,6 +115,15 @@ TEST(ConfigLoader, MissingPartsAndRepeatedNames) {
                        "several)");
 }
 
+TEST(ConfigLoader, ShippedExampleIsValid) {
+  std::vector<ConfigError> errors;
+  const auto c = LoadRunConfig(PLATEAU_SOURCE_DIR "/config/example.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  EXPECT_EQ(c->statistics.size(), 5u);
+  EXPECT_EQ(c->statistics[4].request.name, "m3(u,u,v)");
+  EXPECT_EQ(c->sources[1].columns.size(), 4u);
+}
+
 TEST(ConfigLoader, UnreadableFileHasNoLineNumber) {
   std::vector<ConfigError> errors;
   EXPECT_FALSE(LoadRunConfig("/nonexistent/run.yaml", &errors).has_value());
