@@ -25,11 +25,17 @@ struct FoundFile {
   std::string pattern;  // the argument that matched it
 };
 
-// The files of one column layout, which become one source.
+// The files of one column layout, which become one source; with the mean and the standard
+// deviation of each column over the first rows of its first file.
 struct Layout {
   std::vector<std::string> columns;
   std::vector<FoundFile> files;
+  std::vector<double> mean;
+  std::vector<double> deviation;
 };
+
+// Rows read per file to see what the columns look like.
+constexpr std::uint64_t kSampleRows = 5000;
 
 std::vector<std::string> Expand(const std::string& pattern) {
   std::vector<std::string> paths;
@@ -43,17 +49,35 @@ std::vector<std::string> Expand(const std::string& pattern) {
   return paths;
 }
 
-// Column names from a file's first data row (and the header before it); empty when none.
-std::vector<std::string> ColumnsOf(const std::string& path) {
-  struct Header : RowSink {
-    std::vector<std::string> names;
-    void OnColumns(const std::vector<std::string>& n) override { names = n; }
-    void OnRow(std::uint64_t, const double*) override {}
+// Column names of a file (empty when it has no data row yet) and, over its first rows, each
+// column's mean and standard deviation (Welford's update).
+Layout LayoutOf(const std::string& path) {
+  struct Sample : RowSink {
+    Layout layout;
+    std::vector<double> sum_sq;
+    std::uint64_t rows = 0;
+    void OnColumns(const std::vector<std::string>& n) override {
+      layout.columns = n;
+      layout.mean.assign(n.size(), 0.0);
+      sum_sq.assign(n.size(), 0.0);
+    }
+    void OnRow(std::uint64_t, const double* values) override {
+      if (rows >= kSampleRows) return;
+      ++rows;
+      for (std::size_t c = 0; c < layout.columns.size(); ++c) {
+        const double delta = values[c] - layout.mean[c];
+        layout.mean[c] += delta / static_cast<double>(rows);
+        sum_sq[c] += delta * (values[c] - layout.mean[c]);
+      }
+    }
     void OnBadLine(std::uint64_t, std::string_view) override {}
-  } header;
+  } sample;
   RowParser parser;
-  ReadProbeFile(path, 0, parser, header, [&] { return header.names.empty(); });
-  return header.names;
+  ReadProbeFile(path, 0, parser, sample, [&] { return sample.rows < kSampleRows; });
+  for (double s : sample.sum_sq) {
+    sample.layout.deviation.push_back(sample.rows > 1 ? std::sqrt(s / (sample.rows - 1)) : 0.0);
+  }
+  return sample.layout;
 }
 
 std::string Quoted(const std::string& text) {
@@ -133,8 +157,21 @@ void WriteConfig(const std::vector<Layout>& layouts, const std::vector<std::stri
       out << "  - name: " << Quoted(name) << "\n"
           << "    source: " << Quoted(source_names[l]) << "\n"
           << "    kind: mean\n"
-          << "    columns: [" << Quoted(column) << "]\n"
-          << "    target: {relative: " << relative << ", confidence: " << confidence << "}\n";
+          << "    columns: [" << Quoted(column) << "]\n";
+      // A mean smaller than the fluctuations (a cross-stream velocity, a lift coefficient) has no
+      // useful relative half-width: give it an absolute one, relative to its standard deviation.
+      const double mean = layouts[l].mean[c];
+      const double deviation = layouts[l].deviation[c];
+      if (deviation > 0.0 && std::fabs(mean) < deviation) {
+        char absolute[32];
+        std::snprintf(absolute, sizeof absolute, "%.3g", relative * deviation);
+        out << "    # mean about zero in the first rows (" << mean << ", standard deviation "
+            << deviation << "):\n    # an absolute target of " << relative
+            << " times the standard deviation\n"
+            << "    target: {absolute: " << absolute << ", confidence: " << confidence << "}\n";
+      } else {
+        out << "    target: {relative: " << relative << ", confidence: " << confidence << "}\n";
+      }
     }
   }
 }
@@ -191,15 +228,15 @@ int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std:
   for (const std::string& pattern : patterns) {
     for (const std::string& path : Expand(pattern)) {
       if (!seen.insert(path).second) continue;
-      const std::vector<std::string> columns = ColumnsOf(path);
-      if (columns.size() < 2) {
+      Layout found = LayoutOf(path);
+      if (found.columns.size() < 2) {
         err << "plateau init: " << path << " has no data rows yet; left out\n";
         continue;
       }
       auto it = std::find_if(layouts.begin(), layouts.end(),
-                             [&](const Layout& l) { return l.columns == columns; });
+                             [&](const Layout& l) { return l.columns == found.columns; });
       if (it == layouts.end()) {
-        layouts.push_back({columns, {}});
+        layouts.push_back(std::move(found));
         it = layouts.end() - 1;
       }
       it->files.push_back({path, pattern});

@@ -104,7 +104,17 @@ void WatchLoop::PollNow() {
   const bool more = monitor_.Poll(WallSeconds());
   WatchNewFolders();
   // A capped read means gigabytes of catch-up: continue at once, but through the loop, so that
-  // signals and evaluations get their turn between slices.
+  // signals and evaluations get their turn between slices. When the backlog is read, evaluate at
+  // once rather than at the next interval: status is then current as soon as it can be.
+  if (!catching_up_ && more) catch_up_start_ = std::chrono::steady_clock::now();
+  if (catching_up_ && !more) {
+    log_->info("caught up with the files in {:.1f} s",
+               std::chrono::duration<double>(std::chrono::steady_clock::now() - catch_up_start_)
+                   .count());
+    monitor_.Evaluate(WallSeconds());
+    ScheduleEvaluation();
+  }
+  catching_up_ = more;
   SchedulePoll(more ? 0.0 : poll_seconds_);
 }
 

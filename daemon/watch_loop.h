@@ -52,6 +52,8 @@ class WatchLoop {
   std::array<char, 4096> inotify_buffer_{};
   std::set<std::string> watched_;
   std::chrono::steady_clock::time_point next_poll_;
+  bool catching_up_ = false;  // a backlog is being read in capped slices
+  std::chrono::steady_clock::time_point catch_up_start_;
   int exit_code_ = 0;
 };
 
