@@ -7,6 +7,7 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <limits>
 #include <set>
 #include <sstream>
 
@@ -103,6 +104,18 @@ class Loader {
   std::optional<SourceConfig> LoadSource(const YAML::Node& node);
   std::optional<StatisticConfig> LoadStatistic(const YAML::Node& node, const RunConfig& c);
   std::optional<Target> LoadTarget(const YAML::Node& node, double default_confidence);
+  void LoadAlerts(const YAML::Node& node, AlertsConfig& alerts);
+  std::optional<EmailConfig> LoadEmail(const YAML::Node& node);
+  std::optional<CommandConfig> LoadCommand(const YAML::Node& node);
+  void LoadMetrics(const YAML::Node& node, RunConfig& c);
+  bool Flag(const YAML::Node& node, const std::string& what, bool* value) {
+    if (node.IsScalar() && (node.Scalar() == "true" || node.Scalar() == "false")) {
+      *value = node.Scalar() == "true";
+      return true;
+    }
+    Error(node, what + " must be true or false");
+    return false;
+  }
 
   std::string file_;
   fs::path folder_;
@@ -171,6 +184,24 @@ void Loader::LoadSettings(const YAML::Node& root, RunConfig& c) {
       c.evaluation.drift_p_value = *v;
     }
   }
+  c.planned_end_time = std::numeric_limits<double>::quiet_NaN();
+  c.cores = std::numeric_limits<double>::quiet_NaN();
+  if (root["planned_end_time"]) {
+    if (auto v = Number(root["planned_end_time"], "planned_end_time", -1e300, 1e300, false,
+                        "the simulated time the run was planned to reach")) {
+      c.planned_end_time = *v;
+    }
+  }
+  if (root["cores"]) {
+    if (auto v = Number(root["cores"], "cores", 0.0, 1e9, true, "the solver job's core count")) {
+      c.cores = *v;
+    }
+  }
+  if (root["socket"]) {
+    if (auto path = Text(root["socket"], "socket")) c.socket_path = Resolve(*path);
+  }
+  if (root["metrics"]) LoadMetrics(root["metrics"], c);
+  if (root["alerts"]) LoadAlerts(root["alerts"], c.alerts);
   if (root["blocks"]) {
     if (auto v = Number(root["blocks"], "blocks", 64, 1 << 24, false,
                         "a whole number of blocks from 64")) {
@@ -327,6 +358,143 @@ std::optional<StatisticConfig> Loader::LoadStatistic(const YAML::Node& node, con
   return ok ? std::optional<StatisticConfig>(s) : std::nullopt;
 }
 
+std::optional<EmailConfig> Loader::LoadEmail(const YAML::Node& node) {
+  if (!node.IsMap()) {
+    Error(node, "email must be a map with host, from and to");
+    return std::nullopt;
+  }
+  CheckKeys(node,
+            {"host", "port", "from", "to", "starttls", "username", "password_file",
+             "password_env", "timeout"},
+            "email");
+  EmailConfig e;
+  bool ok = true;
+  for (const char* required : {"host", "from", "to"}) {
+    if (!node[required]) {
+      Error(node, std::string("email needs ") + required);
+      ok = false;
+    }
+  }
+  if (node["host"]) ok = (e.host = Text(node["host"], "host").value_or("")).size() > 0 && ok;
+  if (node["from"]) ok = (e.from = Text(node["from"], "from").value_or("")).size() > 0 && ok;
+  if (node["to"]) {
+    e.to = TextList(node["to"], "to");
+    ok = ok && !e.to.empty();
+  }
+  if (node["port"]) {
+    if (auto p = Number(node["port"], "port", 1, 65535, false, "a port number from 1 to 65535")) {
+      e.port = static_cast<int>(*p);
+    } else {
+      ok = false;
+    }
+  }
+  if (node["starttls"]) ok = Flag(node["starttls"], "starttls", &e.starttls) && ok;
+  if (node["username"]) e.username = Text(node["username"], "username").value_or("");
+  if (node["password_file"]) {
+    if (auto f = Text(node["password_file"], "password_file")) e.password_file = Resolve(*f);
+  }
+  if (node["password_env"]) e.password_env = Text(node["password_env"], "password_env").value_or("");
+  if (!e.username.empty() && e.password_file.empty() && e.password_env.empty()) {
+    Error(node, "email has a username but no password_file or password_env (the password never "
+                "goes in the config itself)");
+    ok = false;
+  }
+  if (node["timeout"]) {
+    auto t = Number(node["timeout"], "timeout", 0.0, 3600, true, "seconds above 0");
+    ok = ok && t.has_value();
+    if (t) e.timeout = *t;
+  }
+  return ok ? std::optional<EmailConfig>(e) : std::nullopt;
+}
+
+std::optional<CommandConfig> Loader::LoadCommand(const YAML::Node& node) {
+  CommandConfig c;
+  const YAML::Node argv = node.IsMap() ? node["argv"] : node;
+  if (node.IsMap()) CheckKeys(node, {"argv", "timeout"}, "command");
+  if (!argv || !argv.IsSequence() || argv.size() == 0) {
+    Error(node, "command must be a list of program and arguments, e.g. [/usr/bin/logger, -t, "
+                "plateau], or a map with argv");
+    return std::nullopt;
+  }
+  c.argv = TextList(argv, "argv");
+  if (node.IsMap() && node["timeout"]) {
+    auto t = Number(node["timeout"], "timeout", 0.0, 86400, true, "seconds above 0");
+    if (!t) return std::nullopt;
+    c.timeout = *t;
+  }
+  return c;
+}
+
+void Loader::LoadAlerts(const YAML::Node& node, AlertsConfig& a) {
+  if (!node.IsMap()) {
+    Error(node, "alerts must be a map");
+    return;
+  }
+  CheckKeys(node,
+            {"events", "stall_after", "bad_lines_per_minute", "max_attempts", "email", "command",
+             "stop_file", "syslog"},
+            "alerts");
+  const std::vector<std::string> kinds{"met",   "lost",    "run_met",  "run_lost",
+                                       "drift", "stalled", "resumed", "bad_lines"};
+  if (node["events"]) {
+    a.events = TextList(node["events"], "events");
+    for (const std::string& e : a.events) {
+      if (std::find(kinds.begin(), kinds.end(), e) == kinds.end()) {
+        Error(node["events"], "event '" + e + "' is not known; expected " + Join(kinds));
+      }
+    }
+  }
+  if (node["stall_after"]) {
+    if (auto v = Number(node["stall_after"], "stall_after", 0.0, 1e9, true, "seconds above 0")) {
+      a.stall_after = *v;
+    }
+  }
+  if (node["bad_lines_per_minute"]) {
+    if (auto v = Number(node["bad_lines_per_minute"], "bad_lines_per_minute", 0.0, 1e12, false,
+                        "a rate, 0 or more")) {
+      a.bad_lines_per_minute = *v;
+    }
+  }
+  if (node["max_attempts"]) {
+    if (auto v = Number(node["max_attempts"], "max_attempts", 1, 100, false,
+                        "a whole number from 1 to 100")) {
+      a.max_attempts = static_cast<int>(*v);
+    }
+  }
+  if (node["email"]) a.email = LoadEmail(node["email"]);
+  if (node["command"]) a.command = LoadCommand(node["command"]);
+  if (node["stop_file"]) {
+    if (auto f = Text(node["stop_file"], "stop_file")) a.stop_file = Resolve(*f);
+  }
+  if (node["syslog"]) Flag(node["syslog"], "syslog", &a.syslog);
+}
+
+void Loader::LoadMetrics(const YAML::Node& node, RunConfig& c) {
+  if (!node.IsMap()) {
+    Error(node, "metrics must be a map such as {listen: 127.0.0.1:9464}");
+    return;
+  }
+  CheckKeys(node, {"listen"}, "metrics");
+  if (!node["listen"]) {
+    Error(node, "metrics needs listen: HOST:PORT, such as 127.0.0.1:9464");
+    return;
+  }
+  const auto listen = Text(node["listen"], "listen");
+  if (!listen) return;
+  const std::size_t colon = listen->rfind(':');
+  int port = 0;
+  const std::string port_text = colon == std::string::npos ? "" : listen->substr(colon + 1);
+  const auto [ptr, ec] =
+      std::from_chars(port_text.data(), port_text.data() + port_text.size(), port);
+  if (colon == 0 || colon == std::string::npos || ec != std::errc() ||
+      ptr != port_text.data() + port_text.size() || port < 1 || port > 65535) {
+    Error(node["listen"], "listen must be HOST:PORT, such as 127.0.0.1:9464, got '" + *listen +
+                              "'");
+    return;
+  }
+  c.metrics_listen = *listen;
+}
+
 std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
   RunConfig c;
   const fs::path path = fs::absolute(file_);
@@ -335,13 +503,15 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
   c.run_folder = folder_.string();
   c.run_name = path.stem().string();
   c.store_path = (folder_ / "plateau.db").string();
+  c.socket_path.clear();
   if (!root.IsMap()) {
     Error(root, "the config must be a map of settings, sources and statistics");
     return std::nullopt;
   }
   CheckKeys(root,
             {"run", "store", "evaluate_every", "poll_every", "confidence", "batches", "warmup",
-             "confirmations", "minimum_effective_samples", "drift_p_value", "blocks", "sources",
+             "confirmations", "minimum_effective_samples", "drift_p_value", "blocks",
+             "planned_end_time", "cores", "socket", "metrics", "alerts", "sources",
              "statistics"},
             "the run settings");
   LoadSettings(root, c);
@@ -370,6 +540,12 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
         c.statistics.push_back(*s);
       }
     }
+  }
+  if (c.socket_path.empty()) c.socket_path = c.store_path + ".sock";
+  // sockaddr_un holds 108 bytes with the terminating zero.
+  if (c.socket_path.size() > 107) {
+    Error(root, "the query socket path " + c.socket_path + " is longer than 107 bytes; set "
+                "socket: to a shorter path");
   }
   if (c.blocks < static_cast<std::size_t>(4 * c.evaluation.batches)) {
     Error(root, "blocks must be at least four times batches");

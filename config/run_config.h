@@ -28,6 +28,39 @@ struct StatisticConfig {
   std::optional<double> reference;
 };
 
+// SMTP delivery. The password is never in the config: it is read from a file or an environment
+// variable named here, and never logged.
+struct EmailConfig {
+  std::string host;
+  int port = 25;
+  std::string from;
+  std::vector<std::string> to;
+  bool starttls = false;
+  std::string username;       // AUTH only when set
+  std::string password_file;  // absolute
+  std::string password_env;
+  double timeout = 30.0;  // seconds per conversation
+};
+
+// A program run for each alert, without a shell; the event's fields come as PLATEAU_* variables.
+struct CommandConfig {
+  std::vector<std::string> argv;
+  double timeout = 60.0;  // seconds, then SIGKILL
+};
+
+struct AlertsConfig {
+  // Event kinds that alert: met, lost, run_met, run_lost, drift, stalled, resumed, bad_lines.
+  std::vector<std::string> events{"met", "lost", "run_met", "run_lost", "drift", "stalled",
+                                  "bad_lines"};
+  double stall_after = 1800.0;         // seconds without a new sample before "stalled"
+  double bad_lines_per_minute = 60.0;  // above this rate over an evaluation interval: "bad_lines"
+  int max_attempts = 8;                // per delivery, with doubling back-off from 10 s
+  std::optional<EmailConfig> email;
+  std::optional<CommandConfig> command;
+  std::string stop_file;  // absolute; created when every target is met; empty: none
+  bool syslog = false;
+};
+
 struct RunConfig {
   std::string config_path;  // absolute
   std::string run_folder;   // the config file's folder: logs go here
@@ -40,6 +73,11 @@ struct RunConfig {
   std::size_t blocks = 4096;
   std::vector<SourceConfig> sources;
   std::vector<StatisticConfig> statistics;
+  AlertsConfig alerts;
+  double planned_end_time = 0.0;  // simulated time the run was planned to reach; NaN: not given
+  double cores = 0.0;             // cores the solver job holds; NaN: not given
+  std::string socket_path;        // the query socket, absolute (default beside the store)
+  std::string metrics_listen;     // "HOST:PORT" of the metrics endpoint; empty: none
 };
 
 // One problem found in a config file, as "run.yaml:12:5: what is wrong, what was expected".

@@ -93,10 +93,10 @@ std::pair<ConvergenceState, std::string> ConvergenceTracker::Judge(
   return {S::kMet, ""};
 }
 
-std::optional<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate& estimate,
-                                                           double wall_time) {
+std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate& estimate,
+                                                         double wall_time) {
   auto [state, reason] = Judge(estimate);
-  std::optional<ConvergenceEvent> event;
+  std::vector<ConvergenceEvent> events;
   if (state == ConvergenceState::kMet) {
     if (estimate.samples_total > confirmed_samples_ || consecutive_ == 0) {
       ++consecutive_;
@@ -110,23 +110,32 @@ std::optional<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstima
       met_ = true;
       met_at_time_ = estimate.last_time;
       met_at_wall_ = wall_time;
-      event = ConvergenceEvent{ConvergenceEvent::Kind::kMet, statistic_, estimate.last_time,
-                               wall_time,
-                               statistic_ + " met its target: " + Format(estimate.value) + " ± " +
-                                   Format(estimate.half_width) + " at " +
-                                   Percent(estimate.confidence) + " confidence"};
+      events.push_back({ConvergenceEvent::Kind::kMet, statistic_, estimate.last_time, wall_time,
+                        statistic_ + " met its target: " + Format(estimate.value) + " ± " +
+                            Format(estimate.half_width) + " at " +
+                            Percent(estimate.confidence) + " confidence"});
     }
   } else {
     consecutive_ = 0;
     if (met_) {
       met_ = false;
-      event = ConvergenceEvent{ConvergenceEvent::Kind::kLost, statistic_, estimate.last_time,
-                               wall_time, statistic_ + " no longer meets its target: " + reason};
+      events.push_back({ConvergenceEvent::Kind::kLost, statistic_, estimate.last_time, wall_time,
+                        statistic_ + " no longer meets its target: " + reason});
     }
+  }
+  if (estimate.state == EstimateState::kEstimated) {
+    if (estimate.drift_detected && !drift_reported_) {
+      events.push_back({ConvergenceEvent::Kind::kDrift, statistic_, estimate.last_time, wall_time,
+                        statistic_ + " drifts: the mean of the first 10 % differs from the last "
+                                     "50 % (Geweke z = " +
+                            Format(estimate.drift.z) + ", p = " + Format(estimate.drift.p_value) +
+                            ")"});
+    }
+    drift_reported_ = estimate.drift_detected;
   }
   state_ = state;
   reason_ = reason;
-  return event;
+  return events;
 }
 
 void ConvergenceTracker::Retarget(std::optional<Target> target, StopRuleSettings settings) {
@@ -137,11 +146,13 @@ void ConvergenceTracker::Retarget(std::optional<Target> target, StopRuleSettings
 
 std::vector<double> ConvergenceTracker::SaveState() const {
   return {static_cast<double>(consecutive_), met_ ? 1.0 : 0.0, met_at_time_, met_at_wall_,
-          static_cast<double>(state_), static_cast<double>(confirmed_samples_)};
+          static_cast<double>(state_), static_cast<double>(confirmed_samples_),
+          drift_reported_ ? 1.0 : 0.0};
 }
 
 bool ConvergenceTracker::RestoreState(const std::vector<double>& state) {
-  if (state.size() != 6) return false;
+  if (state.size() != 7) return false;
+  drift_reported_ = state[6] != 0.0;
   confirmed_samples_ = static_cast<std::uint64_t>(state[5]);
   consecutive_ = static_cast<int>(state[0]);
   met_ = state[1] != 0.0;

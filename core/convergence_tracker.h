@@ -43,7 +43,7 @@ enum class ConvergenceState {
 std::string_view ConvergenceStateName(ConvergenceState state);
 
 struct ConvergenceEvent {
-  enum class Kind { kMet, kLost };
+  enum class Kind { kMet, kLost, kDrift };
   Kind kind;
   std::string statistic;
   double simulated_time;  // last sample time at the evaluation
@@ -59,9 +59,10 @@ class ConvergenceTracker {
   ConvergenceTracker(std::string statistic, std::optional<Target> target,
                      StopRuleSettings settings);
 
-  // Takes one evaluation; returns the event it causes, if any. Only an evaluation with new samples
-  // counts as a confirmation: re-evaluating a paused run proves nothing new.
-  std::optional<ConvergenceEvent> Update(const StatisticEstimate& estimate, double wall_time);
+  // Takes one evaluation; returns the events it causes (met, lost, drift first detected), in that
+  // order. Only an evaluation with new samples counts as a confirmation: re-evaluating a paused run
+  // proves nothing new.
+  std::vector<ConvergenceEvent> Update(const StatisticEstimate& estimate, double wall_time);
 
   ConvergenceState state() const { return state_; }
   const std::string& reason() const { return reason_; }  // why the state is what it is
@@ -92,6 +93,7 @@ class ConvergenceTracker {
   int consecutive_ = 0;
   std::uint64_t confirmed_samples_ = 0;  // samples_total at the last counted confirmation
   bool met_ = false;
+  bool drift_reported_ = false;
   double met_at_time_;
   double met_at_wall_;
 };

@@ -63,7 +63,12 @@ StopRuleSettings SettingsFor(const RunConfig& config, const StatisticConfig& c) 
 
 RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
                        std::shared_ptr<spdlog::logger> log)
-    : config_(std::move(config)), store_(std::move(store)), log_(std::move(log)) {
+    : config_(std::move(config)),
+      store_(std::move(store)),
+      log_(std::move(log)),
+      first_sample_wall_(kNaN),
+      last_sample_wall_(kNaN),
+      bad_lines_since_(kNaN) {
   for (const SourceConfig& source : config_.sources) {
     std::vector<StatisticRequest> requests;
     for (const StatisticConfig& s : config_.statistics) {
@@ -123,9 +128,83 @@ void RunMonitor::Restore() {
     if (state != checkpoint->items.end()) t.tracker.RestoreState(state->second);
   }
   const auto run = checkpoint->items.find("run");
-  run_met_ = run != checkpoint->items.end() && !run->second.empty() && run->second[0] != 0.0;
+  if (run != checkpoint->items.end() && run->second.size() == 5) {
+    run_met_ = run->second[0] != 0.0;
+    stalled_ = run->second[1] != 0.0;
+    first_sample_wall_ = run->second[2];
+    last_sample_wall_ = run->second[3];
+    bad_lines_alarm_ = run->second[4] != 0.0;
+  }
   log_->info("resumed from the checkpoint of cycle {} ({} files)", checkpoint->cycle,
              checkpoint->files.size());
+}
+
+void RunMonitor::NoteCatchUp() {
+  rate_.Restart();
+  bad_lines_since_ = kNaN;
+}
+
+EventRow RunMonitor::MakeEvent(const std::string& kind, const std::string& statistic,
+                               std::string message, double simulated_time,
+                               double wall_time) const {
+  EventRow e;
+  e.kind = kind;
+  e.statistic = statistic;
+  e.message = std::move(message);
+  e.simulated_time = simulated_time;
+  e.wall_time = wall_time;
+  e.value = kNaN;
+  e.half_width = kNaN;
+  e.confidence = kNaN;
+  e.progress_rate = rate_.PerHour();
+  e.elapsed_wall = wall_time - first_sample_wall_;
+  const AlertsConfig& a = config_.alerts;
+  if (std::find(a.events.begin(), a.events.end(), kind) != a.events.end()) {
+    if (a.email) e.channels.push_back("email");
+    if (a.command) e.channels.push_back("command");
+  }
+  if (kind == "run_met" && !a.stop_file.empty()) e.channels.push_back("stop_file");
+  return e;
+}
+
+void RunMonitor::WatchInput(const CycleRecord& record, double wall_time,
+                            std::vector<EventRow>& events) {
+  const double newest = record.last_sample_wall_time;
+  if (stalled_ && newest > last_sample_wall_) {
+    stalled_ = false;
+    events.push_back(MakeEvent("resumed", "", "new samples arrive again (time " +
+                                                  FormatValue(record.last_sample_time) + ")",
+                               record.last_sample_time, wall_time));
+  }
+  if (!std::isnan(newest)) last_sample_wall_ = newest;
+  if (!stalled_ && !std::isnan(last_sample_wall_) &&
+      wall_time - last_sample_wall_ > config_.alerts.stall_after) {
+    stalled_ = true;
+    events.push_back(MakeEvent(
+        "stalled", "",
+        "no new sample for " + FormatValue((wall_time - last_sample_wall_) / 60.0) +
+            " min (the newest has time " + FormatValue(record.last_sample_time) +
+            "): has the solver stopped, crashed or hung?",
+        record.last_sample_time, wall_time));
+  }
+  std::uint64_t bad = 0;
+  for (const auto& tail : tails_) bad += tail->bad_lines();
+  if (!std::isnan(bad_lines_since_) && wall_time > bad_lines_since_) {
+    const double per_minute =
+        static_cast<double>(bad - bad_lines_seen_) / (wall_time - bad_lines_since_) * 60.0;
+    if (per_minute > config_.alerts.bad_lines_per_minute && !bad_lines_alarm_) {
+      events.push_back(MakeEvent(
+          "bad_lines", "",
+          std::to_string(bad - bad_lines_seen_) + " bad lines since the last evaluation (" +
+              FormatValue(per_minute) + " a minute, above " +
+              FormatValue(config_.alerts.bad_lines_per_minute) +
+              "): is something else writing into the probe files?",
+          record.last_sample_time, wall_time));
+    }
+    bad_lines_alarm_ = per_minute > config_.alerts.bad_lines_per_minute;
+  }
+  bad_lines_seen_ = bad;
+  bad_lines_since_ = wall_time;
 }
 
 bool RunMonitor::Poll(double wall_time) {
@@ -166,10 +245,20 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
     state = "column_missing";
     reason = problem;
   } else {
-    if (auto event = t.tracker.Update(e, wall_time)) {
-      events.push_back({0, 0, event->wall_time, event->simulated_time, event->statistic,
-                        event->kind == ConvergenceEvent::Kind::kMet ? "met" : "lost",
-                        event->message});
+    for (const ConvergenceEvent& event : t.tracker.Update(e, wall_time)) {
+      const char* kind = event.kind == ConvergenceEvent::Kind::kMet    ? "met"
+                         : event.kind == ConvergenceEvent::Kind::kLost ? "lost"
+                                                                       : "drift";
+      EventRow row = MakeEvent(kind, event.statistic, event.message, event.simulated_time,
+                               event.wall_time);
+      row.value = e.value;
+      row.half_width = e.half_width;
+      row.confidence = e.confidence;
+      if (c.target) {
+        row.target = c.target->kind == Target::Kind::kRelative ? FormatPercent(c.target->value)
+                                                               : FormatValue(c.target->value);
+      }
+      events.push_back(std::move(row));
     }
     state = std::string(ConvergenceStateName(t.tracker.state()));
     reason = t.tracker.reason();
@@ -209,7 +298,10 @@ Status RunMonitor::Evaluate(double wall_time) {
     const double w = tail->last_sample_wall_time();
     if (!std::isnan(w) && !(w <= record.last_sample_wall_time)) record.last_sample_wall_time = w;
   }
+  if (std::isnan(first_sample_wall_)) first_sample_wall_ = record.last_sample_wall_time;
+  rate_.Add(wall_time, record.last_sample_time);
   std::vector<EventRow> events;
+  WatchInput(record, wall_time, events);
   int targets = 0;
   int met = 0;
   for (Tracked& t : tracked_) {
@@ -221,9 +313,11 @@ Status RunMonitor::Evaluate(double wall_time) {
   }
   const bool run_met = targets > 0 && met == targets;
   if (run_met != run_met_) {
-    events.push_back({0, 0, wall_time, record.last_sample_time, "", run_met ? "run_met" : "run_lost",
-                      run_met ? "every target of run " + config_.run_name + " is met: stop"
-                              : "run " + config_.run_name + " no longer meets every target"});
+    events.push_back(MakeEvent(run_met ? "run_met" : "run_lost", "",
+                               run_met ? "every target of run " + config_.run_name +
+                                             " is met: the solver can stop"
+                                       : "run " + config_.run_name + " no longer meets every target",
+                               record.last_sample_time, wall_time));
     run_met_ = run_met;
   }
   record.run_met = run_met_;
@@ -233,7 +327,8 @@ Status RunMonitor::Evaluate(double wall_time) {
   for (const Tracked& t : tracked_) {
     record.checkpoint["tracker:" + t.config->request.name] = t.tracker.SaveState();
   }
-  record.checkpoint["run"] = {run_met_ ? 1.0 : 0.0};
+  record.checkpoint["run"] = {run_met_ ? 1.0 : 0.0, stalled_ ? 1.0 : 0.0, first_sample_wall_,
+                              last_sample_wall_, bad_lines_alarm_ ? 1.0 : 0.0};
 
   const Status status = store_->WriteCycle(record);
   if (!status.ok()) {

@@ -14,6 +14,7 @@
 
 #include "config/run_config.h"
 #include "core/convergence_tracker.h"
+#include "core/progress_rate.h"
 #include "core/status.h"
 #include "daemon/source_tail.h"
 #include "store/run_store.h"
@@ -32,8 +33,13 @@ class RunMonitor {
   bool Poll(double wall_time);
   // Evaluates every statistic and writes one cycle to the store.
   Status Evaluate(double wall_time);
+  // The loop is reading a backlog: what follows says nothing about the solver's speed or its
+  // bad-line rate, so both measurements start again.
+  void NoteCatchUp();
 
   bool run_met() const { return run_met_; }
+  RunStore& store() { return *store_; }
+  double progress_rate() const { return rate_.PerHour(); }
   std::int64_t cycle() const { return cycle_; }
   const RunConfig& config() const { return config_; }
   std::vector<std::string> Folders() const;
@@ -50,6 +56,10 @@ class RunMonitor {
   };
   SourceTail* TailOf(const std::string& source);
   SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events);
+  // An event with the details alerts need and the channels that take its kind.
+  EventRow MakeEvent(const std::string& kind, const std::string& statistic, std::string message,
+                     double simulated_time, double wall_time) const;
+  void WatchInput(const CycleRecord& record, double wall_time, std::vector<EventRow>& events);
 
   RunConfig config_;
   std::unique_ptr<RunStore> store_;
@@ -60,6 +70,13 @@ class RunMonitor {
   std::int64_t cycle_ = 0;
   bool run_met_ = false;
   bool last_write_failed_ = false;
+  ProgressRate rate_;
+  double first_sample_wall_;  // when the run's first sample was read
+  double last_sample_wall_;   // when its newest sample was read (kept across restarts)
+  bool stalled_ = false;
+  std::uint64_t bad_lines_seen_ = 0;
+  double bad_lines_since_;  // wall time of bad_lines_seen_; NaN: no baseline yet
+  bool bad_lines_alarm_ = false;
 };
 
 }  // namespace plateau

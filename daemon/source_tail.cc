@@ -182,6 +182,12 @@ double SourceTail::last_sample_time() const {
   return std::isinf(t) ? std::numeric_limits<double>::quiet_NaN() : t;
 }
 
+std::uint64_t SourceTail::bad_lines() const {
+  std::uint64_t total = 0;
+  for (const TrackedFile& f : files_) total += f.parser.bad_lines();
+  return total;
+}
+
 std::vector<std::string> SourceTail::Folders() const {
   std::set<std::string> folders{FixedFolder(config_.files)};
   for (const TrackedFile& f : files_) folders.insert(fs::path(f.path).parent_path().string());

@@ -45,6 +45,8 @@ class SourceTail {
   const Statistic* Find(const std::string& statistic_name) const;
   double last_sample_time() const;
   double last_sample_wall_time() const { return last_sample_wall_time_; }
+  // Bad lines skipped in all of the source's files so far.
+  std::uint64_t bad_lines() const;
   // Folders worth an inotify watch: the fixed part of the glob and every folder with a file.
   std::vector<std::string> Folders() const;
 

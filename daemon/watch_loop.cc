@@ -106,6 +106,7 @@ void WatchLoop::PollNow() {
   // A capped read means gigabytes of catch-up: continue at once, but through the loop, so that
   // signals and evaluations get their turn between slices. When the backlog is read, evaluate at
   // once rather than at the next interval: status is then current as soon as it can be.
+  if (more) monitor_.NoteCatchUp();
   if (!catching_up_ && more) catch_up_start_ = std::chrono::steady_clock::now();
   if (catching_up_ && !more) {
     log_->info("caught up with the files in {:.1f} s",

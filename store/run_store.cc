@@ -1,6 +1,7 @@
 #include "store/run_store.h"
 
 #include <array>
+#include <cmath>
 
 namespace plateau {
 namespace {
@@ -51,6 +52,23 @@ CREATE TABLE files(
   signature TEXT NOT NULL);
 CREATE TABLE checkpoint(item TEXT PRIMARY KEY, state BLOB NOT NULL);
 INSERT INTO meta(key, value) VALUES ('application', 'plateau');
+)sql",
+                                                                              R"sql(
+ALTER TABLE events ADD COLUMN value REAL;
+ALTER TABLE events ADD COLUMN half_width REAL;
+ALTER TABLE events ADD COLUMN confidence REAL;
+ALTER TABLE events ADD COLUMN target TEXT NOT NULL DEFAULT '';
+ALTER TABLE events ADD COLUMN progress_rate REAL;
+ALTER TABLE events ADD COLUMN elapsed_wall REAL;
+CREATE TABLE deliveries(
+  event_id INTEGER NOT NULL REFERENCES events(id),
+  channel TEXT NOT NULL,
+  state TEXT NOT NULL,
+  attempts INTEGER NOT NULL,
+  next_attempt_at REAL,
+  last_attempt_at REAL,
+  last_error TEXT NOT NULL,
+  PRIMARY KEY(event_id, channel));
 )sql"};
 
 std::string JoinColumns(const std::vector<std::string>& columns) {
@@ -227,10 +245,13 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     }
 
     auto event = db.Prepare(
-        "INSERT INTO events(cycle, wall_time, simulated_time, statistic, kind, message) "
-        "VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
+        "INSERT INTO events(cycle, wall_time, simulated_time, statistic, kind, message, value, "
+        "half_width, confidence, target, progress_rate, elapsed_wall) "
+        "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
         &s);
-    if (!event) return s;
+    auto delivery = db.Prepare(
+        "INSERT INTO deliveries VALUES (?1, ?2, 'pending', 0, ?3, NULL, '')", &s);
+    if (!event || !delivery) return s;
     for (const EventRow& e : r.events) {
       event->Reset();
       event->Bind(1, r.cycle);
@@ -239,7 +260,21 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       event->Bind(4, e.statistic);
       event->Bind(5, e.kind);
       event->Bind(6, e.message);
+      event->Bind(7, e.value);
+      event->Bind(8, e.half_width);
+      event->Bind(9, e.confidence);
+      event->Bind(10, e.target);
+      event->Bind(11, e.progress_rate);
+      event->Bind(12, e.elapsed_wall);
       if (!(s = event->Run()).ok()) return s;
+      const std::int64_t id = db.LastInsertId();
+      for (const std::string& channel : e.channels) {
+        delivery->Reset();
+        delivery->Bind(1, id);
+        delivery->Bind(2, channel);
+        delivery->Bind(3, e.wall_time);
+        if (!(s = delivery->Run()).ok()) return s;
+      }
     }
 
     auto file = db.Prepare(
@@ -401,28 +436,90 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
   return view;
 }
 
+namespace {
+
+constexpr const char* kEventColumns =
+    "e.id, e.cycle, e.wall_time, e.simulated_time, e.statistic, e.kind, e.message, e.value, "
+    "e.half_width, e.confidence, e.target, e.progress_rate, e.elapsed_wall";
+
+// Reads the kEventColumns of a row, starting at column `first`.
+EventRow EventAt(const SqliteStatement& q, int first) {
+  EventRow e;
+  e.id = q.ColumnInt(first);
+  e.cycle = q.ColumnInt(first + 1);
+  e.wall_time = q.ColumnDouble(first + 2);
+  e.simulated_time = q.ColumnDouble(first + 3);
+  e.statistic = q.ColumnText(first + 4);
+  e.kind = q.ColumnText(first + 5);
+  e.message = q.ColumnText(first + 6);
+  e.value = q.ColumnDouble(first + 7);
+  e.half_width = q.ColumnDouble(first + 8);
+  e.confidence = q.ColumnDouble(first + 9);
+  e.target = q.ColumnText(first + 10);
+  e.progress_rate = q.ColumnDouble(first + 11);
+  e.elapsed_wall = q.ColumnDouble(first + 12);
+  return e;
+}
+
+}  // namespace
+
 std::vector<EventRow> RunStore::ReadEvents(std::int64_t after_id, int limit, Status* status) {
   std::vector<EventRow> events;
-  auto query = connection_->Prepare(
-      "SELECT id, cycle, wall_time, simulated_time, statistic, kind, message FROM events "
-      "WHERE id > ?1 ORDER BY id LIMIT ?2",
-      status);
+  auto query = connection_->Prepare(std::string("SELECT ") + kEventColumns +
+                                        " FROM events e WHERE e.id > ?1 ORDER BY e.id LIMIT ?2",
+                                    status);
   if (!query) return events;
   query->Bind(1, after_id);
   query->Bind(2, static_cast<std::int64_t>(limit));
-  while (query->Step()) {
-    EventRow e;
-    e.id = query->ColumnInt(0);
-    e.cycle = query->ColumnInt(1);
-    e.wall_time = query->ColumnDouble(2);
-    e.simulated_time = query->ColumnDouble(3);
-    e.statistic = query->ColumnText(4);
-    e.kind = query->ColumnText(5);
-    e.message = query->ColumnText(6);
-    events.push_back(std::move(e));
-  }
+  while (query->Step()) events.push_back(EventAt(*query, 0));
   *status = query->status();
   return events;
+}
+
+std::vector<DeliveryRow> RunStore::DueDeliveries(double now, Status* status) {
+  std::vector<DeliveryRow> due;
+  auto query = connection_->Prepare(
+      std::string("SELECT d.channel, d.attempts, ") + kEventColumns +
+          " FROM deliveries d JOIN events e ON e.id = d.event_id WHERE d.state = 'pending' AND "
+          "d.next_attempt_at <= ?1 ORDER BY e.id, d.channel",
+      status);
+  if (!query) return due;
+  query->Bind(1, now);
+  while (query->Step()) {
+    DeliveryRow d;
+    d.channel = query->ColumnText(0);
+    d.attempts = static_cast<int>(query->ColumnInt(1));
+    d.event = EventAt(*query, 2);
+    due.push_back(std::move(d));
+  }
+  *status = query->status();
+  return due;
+}
+
+Status RunStore::RecordDelivery(std::int64_t event_id, const std::string& channel, bool delivered,
+                                const std::string& error, double now, double retry_at) {
+  Status status;
+  auto update = connection_->Prepare(
+      "UPDATE deliveries SET state = ?3, attempts = attempts + 1, next_attempt_at = ?4, "
+      "last_attempt_at = ?5, last_error = ?6 WHERE event_id = ?1 AND channel = ?2",
+      &status);
+  if (!update) return status;
+  update->Bind(1, event_id);
+  update->Bind(2, channel);
+  update->Bind(3, std::string(delivered ? "delivered" : std::isnan(retry_at) ? "failed" : "pending"));
+  update->Bind(4, retry_at);
+  update->Bind(5, now);
+  update->Bind(6, error);
+  return update->Run();
+}
+
+int RunStore::CountDeliveries(const std::string& state, Status* status) {
+  auto query = connection_->Prepare("SELECT count(*) FROM deliveries WHERE state = ?1", status);
+  if (!query) return -1;
+  query->Bind(1, state);
+  const int count = query->Step() ? static_cast<int>(query->ColumnInt(0)) : -1;
+  *status = query->status();
+  return count;
 }
 
 Status RunStore::CheckIntegrity() {

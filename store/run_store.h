@@ -63,8 +63,23 @@ struct EventRow {
   double wall_time = 0.0;
   double simulated_time = 0.0;
   std::string statistic;  // empty for a run-wide event
-  std::string kind;       // met, lost, run_met, run_lost, ...
+  std::string kind;       // met, lost, run_met, run_lost, drift, stalled, resumed, bad_lines
   std::string message;
+  // What an alert says beyond the message (NaN or empty when they do not apply).
+  double value = 0.0;
+  double half_width = 0.0;
+  double confidence = 0.0;
+  std::string target;          // "1 %", "0.002"
+  double progress_rate = 0.0;  // simulated time per wall-clock hour, recently
+  double elapsed_wall = 0.0;   // seconds since the run's first sample was read
+  std::vector<std::string> channels;  // deliveries to create with the event (write only)
+};
+
+// One alert channel's delivery of one event.
+struct DeliveryRow {
+  EventRow event;
+  std::string channel;  // email, command, stop_file
+  int attempts = 0;
 };
 
 struct CycleRecord {
@@ -101,7 +116,7 @@ struct StoredCheckpoint {
 
 class RunStore {
  public:
-  static constexpr int kSchemaVersion = 1;
+  static constexpr int kSchemaVersion = 2;
 
   // Opens for writing (creating and migrating the schema) or for reading only. nullptr with *status
   // set when the file cannot be opened, is not a plateau store, or comes from a newer schema.
@@ -117,6 +132,15 @@ class RunStore {
   std::optional<LatestView> ReadLatest(Status* status);
   // Events after `after_id`, oldest first, at most `limit`.
   std::vector<EventRow> ReadEvents(std::int64_t after_id, int limit, Status* status);
+  // Deliveries not yet made whose next attempt is due at `now`, oldest event first.
+  std::vector<DeliveryRow> DueDeliveries(double now, Status* status);
+  // Records an attempt: delivered, or failed with `error` and retried at `retry_at` (NaN: given
+  // up after the last attempt).
+  Status RecordDelivery(std::int64_t event_id, const std::string& channel, bool delivered,
+                        const std::string& error, double now, double retry_at);
+  // Deliveries made, for tests and status: (event id, channel) pairs with state "delivered".
+  int CountDeliveries(const std::string& state, Status* status);
+
   // `PRAGMA integrity_check`: ok, or what SQLite found.
   Status CheckIntegrity();
 

@@ -99,6 +99,8 @@ std::unique_ptr<SqliteConnection> SqliteConnection::Open(const std::string& path
 
 SqliteConnection::~SqliteConnection() { sqlite3_close(db_); }
 
+std::int64_t SqliteConnection::LastInsertId() const { return sqlite3_last_insert_rowid(db_); }
+
 std::string SqliteConnection::LastError() const {
   return "store " + path_ + ": " + sqlite3_errmsg(db_);
 }

@@ -64,6 +64,7 @@ class SqliteConnection {
   // nullptr with *status set on a malformed statement.
   std::unique_ptr<SqliteStatement> Prepare(const std::string& sql, Status* status);
   const std::string& path() const { return path_; }
+  std::int64_t LastInsertId() const;
   // "store PATH: <sqlite message>" for the last failure on this connection.
   std::string LastError() const;
 

@@ -60,7 +60,7 @@ TEST(ConfigLoader, UnknownKeyIsAnErrorAtItsLineAndColumn) {
                 "/runs/ch420/run.yaml:2:1: unknown key 'evaluate_evry' in the run settings; "
                 "expected one of run, store, evaluate_every, poll_every, confidence, batches, "
                 "warmup, confirmations, minimum_effective_samples, drift_p_value, blocks, "
-                "sources or statistics"});
+                "planned_end_time, cores, socket, metrics, alerts, sources or statistics"});
 }
 
 TEST(ConfigLoader, TypoInsideAStatisticPointsAtTheKey) {
@@ -113,6 +113,31 @@ TEST(ConfigLoader, MissingPartsAndRepeatedNames) {
   EXPECT_EQ(errors[1], "/runs/ch420/run.yaml:9:5: statistic name 'u' repeats; give one a name");
   EXPECT_EQ(errors[2], "/runs/ch420/run.yaml:11:5: statistic 'w' needs a source (there are "
                        "several)");
+}
+
+TEST(ConfigLoader, AlertsAreReadAndThePasswordNeverSitsInTheConfig) {
+  std::vector<ConfigError> errors;
+  const std::string alerts = std::string(kValid) +
+                             "planned_end_time: 400\ncores: 512\nmetrics: {listen: 127.0.0.1:9464}\n"
+                             "alerts:\n  stop_file: STOP\n  command: [/usr/bin/logger, -t, plateau]\n"
+                             "  email:\n    host: localhost\n    port: 2525\n    from: p@x\n"
+                             "    to: [a@x, b@x]\n    username: alice\n"
+                             "    password_env: PLATEAU_SMTP_PASSWORD\n";
+  const auto c = ParseRunConfig(alerts, "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  EXPECT_EQ(c->alerts.stop_file, "/runs/ch420/STOP");
+  EXPECT_EQ(c->alerts.command->argv.size(), 3u);
+  EXPECT_EQ(c->alerts.email->to.size(), 2u);
+  EXPECT_EQ(c->alerts.email->port, 2525);
+  EXPECT_EQ(c->planned_end_time, 400.0);
+  EXPECT_EQ(c->metrics_listen, "127.0.0.1:9464");
+  EXPECT_EQ(c->socket_path, "/runs/ch420/plateau.db.sock");
+  const auto e = Errors(std::string(kValid) +
+                        "alerts:\n  email: {host: h, from: f, to: t, username: u}\n"
+                        "  events: [met, converged]\n");
+  ASSERT_EQ(e.size(), 2u);
+  EXPECT_NE(e[0].find("event 'converged' is not known"), std::string::npos);
+  EXPECT_NE(e[1].find("the password never goes in the config itself"), std::string::npos);
 }
 
 TEST(ConfigLoader, ShippedExampleIsValid) {

@@ -29,20 +29,20 @@ ConvergenceTracker OnePercent() {
 
 TEST(ConvergenceTracker, MetOnlyAfterThreeConfirmationsWithNewData) {
   ConvergenceTracker t = OnePercent();
-  EXPECT_FALSE(t.Update(Estimated(2.0, 0.03, 1000), 10.0));  // 1.5 %: converging
+  EXPECT_TRUE(t.Update(Estimated(2.0, 0.03, 1000), 10.0).empty());  // 1.5 %: converging
   EXPECT_EQ(t.state(), ConvergenceState::kConverging);
-  EXPECT_FALSE(t.Update(Estimated(2.0, 0.015, 2000), 20.0));
+  EXPECT_TRUE(t.Update(Estimated(2.0, 0.015, 2000), 20.0).empty());
   EXPECT_EQ(t.reason(), "target reached, confirmation 1 of 3");
-  EXPECT_FALSE(t.Update(Estimated(2.0, 0.015, 2000), 25.0));  // same data: not a confirmation
+  EXPECT_TRUE(t.Update(Estimated(2.0, 0.015, 2000), 25.0).empty());  // same data: no confirmation
   EXPECT_EQ(t.consecutive(), 1);
-  EXPECT_FALSE(t.Update(Estimated(2.0, 0.014, 3000), 30.0));
+  EXPECT_TRUE(t.Update(Estimated(2.0, 0.014, 3000), 30.0).empty());
   const auto met = t.Update(Estimated(2.0, 0.013, 4000), 40.0);
-  ASSERT_TRUE(met);
-  EXPECT_EQ(met->kind, ConvergenceEvent::Kind::kMet);
+  ASSERT_EQ(met.size(), 1u);
+  EXPECT_EQ(met[0].kind, ConvergenceEvent::Kind::kMet);
   EXPECT_EQ(t.state(), ConvergenceState::kMet);
   EXPECT_EQ(t.met_at_wall(), 40.0);
   EXPECT_EQ(t.met_at_time(), 40.0);
-  EXPECT_FALSE(t.Update(Estimated(2.0, 0.012, 5000), 50.0));  // stays met, no second event
+  EXPECT_TRUE(t.Update(Estimated(2.0, 0.012, 5000), 50.0).empty());  // stays met, no new event
 }
 
 TEST(ConvergenceTracker, LosingTheTargetIsAnEventAndNeedsFreshConfirmations) {
@@ -50,8 +50,8 @@ TEST(ConvergenceTracker, LosingTheTargetIsAnEventAndNeedsFreshConfirmations) {
   for (int i = 1; i <= 3; ++i) t.Update(Estimated(2.0, 0.01, 1000 * i), i);
   ASSERT_TRUE(t.met());
   const auto lost = t.Update(Estimated(2.0, 0.03, 4000), 4.0);
-  ASSERT_TRUE(lost);
-  EXPECT_EQ(lost->kind, ConvergenceEvent::Kind::kLost);
+  ASSERT_EQ(lost.size(), 1u);
+  EXPECT_EQ(lost[0].kind, ConvergenceEvent::Kind::kLost);
   EXPECT_FALSE(t.met());
   EXPECT_EQ(t.consecutive(), 0);
 }
@@ -60,8 +60,11 @@ TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet)
   ConvergenceTracker t = OnePercent();
   StatisticEstimate drifting = Estimated(2.0, 0.001, 1000);
   drifting.drift_detected = true;
-  t.Update(drifting, 1.0);
+  const auto drift = t.Update(drifting, 1.0);
+  ASSERT_EQ(drift.size(), 1u);
+  EXPECT_EQ(drift[0].kind, ConvergenceEvent::Kind::kDrift);
   EXPECT_EQ(t.state(), ConvergenceState::kDrifting);
+  EXPECT_TRUE(t.Update(drifting, 1.5).empty());  // reported once while it lasts
   StatisticEstimate few = Estimated(2.0, 0.001, 2000);
   few.effective_samples = 40;
   t.Update(few, 2.0);
@@ -87,7 +90,7 @@ TEST(ConvergenceTracker, AbsoluteTargetAndMinimumAveragingTime) {
   t.Update(Estimated(-0.3, 0.04, 2000), 1.0);  // averaged 19 time units of 50
   EXPECT_EQ(t.state(), ConvergenceState::kConverging);
   EXPECT_EQ(t.reason(), "averaged over 19 time units, the minimum is 50");
-  EXPECT_TRUE(t.Update(Estimated(-0.3, 0.04, 6000), 2.0));
+  EXPECT_EQ(t.Update(Estimated(-0.3, 0.04, 6000), 2.0).size(), 1u);
   EXPECT_EQ(t.TargetHalfWidth(-0.3), 0.05);
 }
 

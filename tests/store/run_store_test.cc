@@ -6,6 +6,8 @@
 
 #include <cmath>
 #include <filesystem>
+#include <fstream>
+#include <sstream>
 
 namespace plateau {
 namespace {
@@ -39,7 +41,15 @@ class RunStoreTest : public ::testing::Test {
     s.target_value = 0.01;
     s.json = "{\"name\":\"tau\",\"cycle\":" + std::to_string(n) + "}";
     r.snapshots = {s};
-    r.events = {{0, 0, 1000.0 + n, 10.0 * n, "tau", "met", "tau met its target"}};
+    EventRow e;
+    e.wall_time = 1000.0 + n;
+    e.simulated_time = 10.0 * n;
+    e.statistic = "tau";
+    e.kind = "met";
+    e.message = "tau met its target";
+    e.value = 0.28;
+    e.channels = {"email", "command"};
+    r.events = {e};
     FileProgress f;
     f.path = "/p/wall.dat";
     f.source = "wall";
@@ -84,6 +94,7 @@ TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
   const auto events = reader->ReadEvents(0, 10, &status);
   ASSERT_EQ(events.size(), 2u);
   EXPECT_EQ(events[1].cycle, 2);
+  EXPECT_EQ(events[1].value, 0.28);
   EXPECT_TRUE(reader->CheckIntegrity().ok());
 }
 
@@ -123,6 +134,50 @@ TEST_F(RunStoreTest, ForeignDatabaseAndMissingFileAreClearErrors) {
   EXPECT_EQ(status.message(), "store " + path_ + " is not a plateau store");
   EXPECT_FALSE(RunStore::OpenForReading((dir_ / "none.db").string(), &status));
   EXPECT_NE(status.message().find("unable to open"), std::string::npos);
+}
+
+TEST_F(RunStoreTest, DeliveriesAreMadeOnceRetriedAndGivenUp) {
+  Status status;
+  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
+  auto due = store->DueDeliveries(2000.0, &status);
+  ASSERT_EQ(due.size(), 2u);
+  EXPECT_EQ(due[0].channel, "command");
+  EXPECT_EQ(due[0].event.value, 0.28);
+  const std::int64_t id = due[0].event.id;
+  ASSERT_TRUE(store->RecordDelivery(id, "command", true, "", 2000.0, std::nan("")).ok());
+  ASSERT_TRUE(store->RecordDelivery(id, "email", false, "connection refused", 2000.0, 2010.0).ok());
+  EXPECT_TRUE(store->DueDeliveries(2005.0, &status).empty());  // the retry is not due yet
+  due = store->DueDeliveries(2010.0, &status);
+  ASSERT_EQ(due.size(), 1u);
+  EXPECT_EQ(due[0].attempts, 1);
+  ASSERT_TRUE(store->RecordDelivery(id, "email", false, "refused", 2010.0, std::nan("")).ok());
+  EXPECT_TRUE(store->DueDeliveries(1e12, &status).empty());
+  EXPECT_EQ(store->CountDeliveries("delivered", &status), 1);
+  EXPECT_EQ(store->CountDeliveries("failed", &status), 1);
+}
+
+TEST_F(RunStoreTest, VersionOneStoreIsMigratedAndKeepsItsHistory) {
+  sqlite3* db = nullptr;
+  sqlite3_open(path_.c_str(), &db);
+  const std::string v1 = [] {
+    std::ifstream in(PLATEAU_TEST_DATA_DIR "/store/fixtures/schema_v1.sql");
+    std::stringstream text;
+    text << in.rdbuf();
+    return text.str();
+  }();
+  ASSERT_EQ(sqlite3_exec(db, v1.c_str(), nullptr, nullptr, nullptr), SQLITE_OK);
+  sqlite3_close(db);
+  Status status;
+  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(store) << status.message();
+  const auto old = store->ReadEvents(0, 10, &status);
+  ASSERT_EQ(old.size(), 1u);
+  EXPECT_EQ(old[0].message, "tau met its target");
+  EXPECT_TRUE(std::isnan(old[0].value));  // a column the old schema did not have
+  ASSERT_TRUE(store->WriteCycle(Cycle(8)).ok()) << "a migrated store takes new cycles";
+  EXPECT_EQ(store->DueDeliveries(1e12, &status).size(), 2u);
+  EXPECT_TRUE(store->CheckIntegrity().ok());
 }
 
 TEST_F(RunStoreTest, ReaderNeverSeesHalfACycle) {
