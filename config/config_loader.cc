@@ -365,7 +365,7 @@ std::optional<EmailConfig> Loader::LoadEmail(const YAML::Node& node) {
   }
   CheckKeys(node,
             {"host", "port", "from", "to", "starttls", "username", "password_file",
-             "password_env", "timeout"},
+             "password_env", "ca_file", "timeout"},
             "email");
   EmailConfig e;
   bool ok = true;
@@ -394,6 +394,9 @@ std::optional<EmailConfig> Loader::LoadEmail(const YAML::Node& node) {
     if (auto f = Text(node["password_file"], "password_file")) e.password_file = Resolve(*f);
   }
   if (node["password_env"]) e.password_env = Text(node["password_env"], "password_env").value_or("");
+  if (node["ca_file"]) {
+    if (auto f = Text(node["ca_file"], "ca_file")) e.ca_file = Resolve(*f);
+  }
   if (!e.username.empty() && e.password_file.empty() && e.password_env.empty()) {
     Error(node, "email has a username but no password_file or password_env (the password never "
                 "goes in the config itself)");

@@ -39,6 +39,7 @@ struct EmailConfig {
   std::string username;       // AUTH only when set
   std::string password_file;  // absolute
   std::string password_env;
+  std::string ca_file;    // PEM certificates to trust for STARTTLS (default: the system's)
   double timeout = 30.0;  // seconds per conversation
 };
 

@@ -46,7 +46,13 @@ WatchLoop::WatchLoop(RunMonitor& monitor, double poll_seconds, double evaluate_s
       log_(std::move(log)),
       poll_timer_(io_),
       evaluate_timer_(io_),
-      signals_(io_, SIGINT, SIGTERM) {}
+      signals_(io_, SIGINT, SIGTERM),
+      alerts_(io_, monitor, log_) {}
+
+void WatchLoop::Evaluate() {
+  // Alerts go out right after the cycle that recorded their events.
+  if (monitor_.Evaluate(WallSeconds()).ok()) alerts_.DispatchDue();
+}
 
 WatchLoop::~WatchLoop() = default;
 
@@ -112,7 +118,7 @@ void WatchLoop::PollNow() {
     log_->info("caught up with the files in {:.1f} s",
                std::chrono::duration<double>(std::chrono::steady_clock::now() - catch_up_start_)
                    .count());
-    monitor_.Evaluate(WallSeconds());
+    Evaluate();
     ScheduleEvaluation();
   }
   catching_up_ = more;
@@ -123,7 +129,7 @@ void WatchLoop::ScheduleEvaluation() {
   evaluate_timer_.expires_after(Seconds(evaluate_seconds_));
   evaluate_timer_.async_wait([this](const boost::system::error_code& error) {
     if (error) return;
-    monitor_.Evaluate(WallSeconds());
+    Evaluate();
     ScheduleEvaluation();
   });
 }
@@ -132,6 +138,7 @@ void WatchLoop::Stop(int signal) {
   // No catch-up first: a batch system that sent SIGTERM sends SIGKILL soon after. What is unread
   // stays unread; the checkpoint's offsets say where to resume.
   log_->info("{}: writing a final cycle and stopping", signal == SIGINT ? "SIGINT" : "SIGTERM");
+  // Alerts of this last cycle stay pending in the store: the next daemon sends them.
   if (!monitor_.Evaluate(WallSeconds()).ok()) {
     log_->error("the final cycle could not be written; the last recorded cycle ({}) stands",
                 monitor_.cycle());
@@ -150,7 +157,8 @@ int WatchLoop::Run() {
   }
   StartInotify();
   PollNow();
-  monitor_.Evaluate(WallSeconds());
+  Evaluate();
+  alerts_.Start();
   ScheduleEvaluation();
   io_.run();
   return exit_code_;

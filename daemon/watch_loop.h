@@ -18,6 +18,7 @@
 #include <set>
 #include <string>
 
+#include "daemon/alert_dispatcher.h"
 #include "daemon/run_monitor.h"
 
 namespace plateau {
@@ -40,6 +41,8 @@ class WatchLoop {
   void ScheduleEvaluation();
   void Stop(int signal);
 
+  void Evaluate();
+
   RunMonitor& monitor_;
   double poll_seconds_;
   double evaluate_seconds_;
@@ -48,6 +51,7 @@ class WatchLoop {
   boost::asio::steady_timer poll_timer_;
   boost::asio::steady_timer evaluate_timer_;
   boost::asio::signal_set signals_;
+  AlertDispatcher alerts_;
   std::optional<boost::asio::posix::stream_descriptor> inotify_;
   std::array<char, 4096> inotify_buffer_{};
   std::set<std::string> watched_;

@@ -1,7 +1,6 @@
 // The real daemon on a temporary run folder: the test writes probe files as a solver would and
 // reads what status, check and the store say.
 #include <gtest/gtest.h>
-#include <unistd.h>
 
 #include <cmath>
 #include <filesystem>
@@ -9,8 +8,7 @@
 #include <random>
 
 #include "store/run_store.h"
-#include "tests/core/synthetic_series.h"
-#include "tests/daemon/plateau_process.h"
+#include "tests/daemon/run_folder.h"
 
 namespace plateau {
 namespace {
@@ -21,84 +19,9 @@ using testing::ReadAll;
 using testing::WaitFor;
 using testing::WatchDaemon;
 
-// AR(1) rows "time x y": x about 10 (phi 0.5), y about -3 (phi 0.8), times 0.01 apart.
-class ProbeRows {
- public:
-  explicit ProbeRows(std::size_t n, std::uint64_t seed = 3)
-      : x_(plateau::testing::Ar1(n, 0.5, seed, 10.0)),
-        y_(plateau::testing::Ar1(n, 0.8, seed + 1, -3.0)) {}
-  std::string Rows(std::size_t from, std::size_t to) const {
-    std::string text;
-    char line[128];
-    for (std::size_t i = from; i < to; ++i) {
-      std::snprintf(line, sizeof line, "%.2f %.17g %.17g\n", 0.01 * i, x_[i], y_[i]);
-      text += line;
-    }
-    return text;
-  }
-  std::size_t size() const { return x_.size(); }
+using testing::ProbeRows;
 
- private:
-  std::vector<double> x_, y_;
-};
-
-class WatchIntegration : public ::testing::Test {
- protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() /
-           ("plateau_watch_" + std::to_string(::getpid()) + "_" +
-            ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_);
-  }
-  void TearDown() override {
-    if (!HasFailure()) fs::remove_all(dir_);
-  }
-
-  std::string Path(const std::string& name) const { return (dir_ / name).string(); }
-
-  void WriteConfig(const std::string& target = "{relative: 0.01}",
-                   const std::string& extra_statistics = "") {
-    std::ofstream(Path("run.yaml")) << "run: test\n"
-                                       "confirmations: 3\n"
-                                       "sources:\n"
-                                       "  - name: probe\n"
-                                       "    files: run*/probe.dat\n"
-                                       "statistics:\n"
-                                       "  - kind: mean\n"
-                                       "    columns: [x]\n"
-                                       "    target: "
-                                    << target << "\n"
-                                    << extra_statistics;
-  }
-
-  void Append(const std::string& file, const std::string& text) {
-    fs::create_directories(fs::path(Path(file)).parent_path());
-    std::ofstream(Path(file), std::ios::app) << text;
-  }
-
-  CommandResult Plateau(std::vector<std::string> args) {
-    return testing::RunPlateau(args, Path("command"));
-  }
-
-  std::optional<LatestView> Latest() {
-    Status status;
-    auto store = RunStore::OpenForReading(Path("plateau.db"), &status);
-    if (!store) return std::nullopt;
-    return store->ReadLatest(&status);
-  }
-
-  // Samples the newest cycle counted for statistic `index`; -1 before any cycle.
-  std::int64_t Samples(std::size_t index = 0) {
-    const auto v = Latest();
-    if (!v || v->statistics.size() <= index) return -1;
-    const std::string& json = v->statistics[index].json;
-    const std::size_t at = json.find("\"samples_total\":");
-    return at == std::string::npos ? -1 : std::stoll(json.substr(at + 16));
-  }
-
-  fs::path dir_;
-};
+class WatchIntegration : public testing::RunFolder {};
 
 TEST_F(WatchIntegration, FollowsGrowingFilesAndCheckSaysStopOnceMet) {
   const ProbeRows rows(12000);

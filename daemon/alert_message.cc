@@ -1,0 +1,85 @@
+#include "daemon/alert_message.h"
+
+#include <cmath>
+#include <ctime>
+
+#include "daemon/analysis_report.h"
+
+namespace plateau {
+namespace {
+
+std::string Utc(double wall) {
+  if (std::isnan(wall)) return "-";
+  const std::time_t t = static_cast<std::time_t>(wall);
+  std::tm tm{};
+  gmtime_r(&t, &tm);
+  char buffer[32];
+  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
+  return buffer;
+}
+
+std::string Hours(double seconds) {
+  char buffer[32];
+  std::snprintf(buffer, sizeof buffer, "%.1f h", seconds / 3600.0);
+  return buffer;
+}
+
+std::string Headline(const EventRow& e, const RunConfig& c) {
+  if (e.kind == "run_met") return c.run_name + ": every target met, the solver can stop";
+  if (e.kind == "run_lost") return c.run_name + ": targets no longer all met";
+  if (e.kind == "met") return c.run_name + ": " + e.statistic + " met its target";
+  if (e.kind == "lost") return c.run_name + ": " + e.statistic + " lost its target";
+  if (e.kind == "drift") return c.run_name + ": " + e.statistic + " drifts";
+  if (e.kind == "stalled") return c.run_name + ": no new samples";
+  if (e.kind == "resumed") return c.run_name + ": samples arrive again";
+  if (e.kind == "bad_lines") return c.run_name + ": many bad lines in the probe files";
+  return c.run_name + ": " + e.kind;
+}
+
+}  // namespace
+
+AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
+  AlertMessage m;
+  m.subject = "[plateau] " + Headline(e, c);
+  std::string& b = m.body;
+  b += e.message + "\n\n";
+  if (!std::isnan(e.value)) {
+    b += "Value: " + FormatValue(e.value) + " " + FormatHalfWidth(e.half_width) + " at " +
+         FormatPercent(e.confidence) + " confidence" +
+         (e.target.empty() ? "" : " (target half-width " + e.target + ")") + "\n";
+  }
+  b += "Simulated time: " + FormatValue(e.simulated_time) + "; wall-clock time: " +
+       Utc(e.wall_time) + "\n";
+  if (!std::isnan(e.elapsed_wall)) {
+    b += "Followed by plateau for " + Hours(e.elapsed_wall) + " since its first sample.\n";
+  }
+  const double remaining = c.planned_end_time - e.simulated_time;
+  if ((e.kind == "run_met" || e.kind == "met") && std::isfinite(remaining) && remaining > 0 &&
+      e.progress_rate > 0 && std::isfinite(c.cores)) {
+    const double hours = remaining / e.progress_rate;
+    b += "The run was planned to reach time " + FormatValue(c.planned_end_time) + "; at the " +
+         "observed " + FormatValue(e.progress_rate) + " time units per hour that is " +
+         Hours(hours * 3600.0) + " more on " + FormatValue(c.cores) +
+         " cores: stopping now saves about " + FormatValue(std::round(hours * c.cores)) +
+         " core-hours.\n";
+  }
+  b += "\nRun " + c.run_name + ", store " + c.store_path + "\n" +
+       "plateau measures sampling error only: a converged average is not a validated one.\n";
+  m.environment = {
+      {"PLATEAU_RUN", c.run_name},
+      {"PLATEAU_STORE", c.store_path},
+      {"PLATEAU_EVENT", e.kind},
+      {"PLATEAU_EVENT_ID", std::to_string(e.id)},
+      {"PLATEAU_STATISTIC", e.statistic},
+      {"PLATEAU_MESSAGE", e.message},
+      {"PLATEAU_VALUE", std::isnan(e.value) ? "" : FormatValue(e.value)},
+      {"PLATEAU_HALF_WIDTH", std::isnan(e.half_width) ? "" : FormatValue(e.half_width)},
+      {"PLATEAU_CONFIDENCE", std::isnan(e.confidence) ? "" : FormatValue(e.confidence)},
+      {"PLATEAU_TARGET", e.target},
+      {"PLATEAU_SIMULATED_TIME", FormatValue(e.simulated_time)},
+      {"PLATEAU_WALL_TIME", Utc(e.wall_time)},
+  };
+  return m;
+}
+
+}  // namespace plateau

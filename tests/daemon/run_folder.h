@@ -1,0 +1,110 @@
+// A temporary run folder for tests of the real daemon: probe rows written as a solver would, the
+// config, short-lived plateau commands, and what the store says. Test-only; one per test.
+#ifndef PLATEAU_TESTS_DAEMON_RUN_FOLDER_H_
+#define PLATEAU_TESTS_DAEMON_RUN_FOLDER_H_
+
+#include <gtest/gtest.h>
+#include <unistd.h>
+
+#include <atomic>
+#include <filesystem>
+#include <fstream>
+#include <optional>
+
+#include "store/run_store.h"
+#include "tests/core/synthetic_series.h"
+#include "tests/daemon/plateau_process.h"
+
+namespace plateau::testing {
+
+// AR(1) rows "time x y": x about 10 (phi 0.5), y about -3 (phi 0.8), times 0.01 apart.
+class ProbeRows {
+ public:
+  explicit ProbeRows(std::size_t n, std::uint64_t seed = 3)
+      : x_(Ar1(n, 0.5, seed, 10.0)), y_(Ar1(n, 0.8, seed + 1, -3.0)) {}
+  std::string Rows(std::size_t from, std::size_t to) const {
+    std::string text;
+    char line[128];
+    for (std::size_t i = from; i < to; ++i) {
+      std::snprintf(line, sizeof line, "%.2f %.17g %.17g\n", 0.01 * i, x_[i], y_[i]);
+      text += line;
+    }
+    return text;
+  }
+  std::size_t size() const { return x_.size(); }
+
+ private:
+  std::vector<double> x_, y_;
+};
+
+class RunFolder : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    // Short: the query socket's path must fit in 107 bytes.
+    static std::atomic<int> counter{0};
+    dir_ = std::filesystem::temp_directory_path() /
+           ("plr" + std::to_string(::getpid()) + "_" + std::to_string(counter++));
+    std::filesystem::remove_all(dir_);
+    std::filesystem::create_directories(dir_);
+  }
+  void TearDown() override {
+    if (!HasFailure()) std::filesystem::remove_all(dir_);
+  }
+
+  std::string Path(const std::string& name) const { return (dir_ / name).string(); }
+
+  // run.yaml with one source (run*/probe.dat) and a mean of x to `target`, then `extra` YAML.
+  void WriteConfig(const std::string& target = "{relative: 0.01}",
+                   const std::string& extra_statistics = "", const std::string& settings = "") {
+    std::ofstream(Path("run.yaml")) << "run: test\n"
+                                       "confirmations: 3\n"
+                                    << settings
+                                    << "sources:\n"
+                                       "  - name: probe\n"
+                                       "    files: run*/probe.dat\n"
+                                       "statistics:\n"
+                                       "  - kind: mean\n"
+                                       "    columns: [x]\n"
+                                       "    target: "
+                                    << target << "\n"
+                                    << extra_statistics;
+  }
+
+  void Append(const std::string& file, const std::string& text) {
+    std::filesystem::create_directories(std::filesystem::path(Path(file)).parent_path());
+    std::ofstream(Path(file), std::ios::app) << text;
+  }
+
+  CommandResult Plateau(std::vector<std::string> args) {
+    return RunPlateau(args, Path("command"));
+  }
+
+  std::optional<LatestView> Latest() {
+    Status status;
+    auto store = RunStore::OpenForReading(Path("plateau.db"), &status);
+    if (!store) return std::nullopt;
+    return store->ReadLatest(&status);
+  }
+
+  std::vector<EventRow> Events() {
+    Status status;
+    auto store = RunStore::OpenForReading(Path("plateau.db"), &status);
+    if (!store) return {};
+    return store->ReadEvents(0, 1000, &status);
+  }
+
+  // samples_total of statistic `index` in the newest cycle; -1 before any cycle.
+  std::int64_t Samples(std::size_t index = 0) {
+    const auto v = Latest();
+    if (!v || v->statistics.size() <= index) return -1;
+    const std::string& json = v->statistics[index].json;
+    const std::size_t at = json.find("\"samples_total\":");
+    return at == std::string::npos ? -1 : std::stoll(json.substr(at + 16));
+  }
+
+  std::filesystem::path dir_;
+};
+
+}  // namespace plateau::testing
+
+#endif  // PLATEAU_TESTS_DAEMON_RUN_FOLDER_H_
