@@ -8,8 +8,9 @@
 namespace plateau {
 
 struct LocatedRun {
-  std::string store_path;  // empty when not found
-  std::string error;       // why not, for "cannot tell"
+  std::string store_path;   // empty when not found
+  std::string socket_path;  // the daemon's query socket (the config's, or beside the store)
+  std::string error;        // why not, for "cannot tell"
 };
 
 // `argument` may be a config (.yaml, .yml: its store), a store file, a folder (its plateau.db, or

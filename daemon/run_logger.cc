@@ -3,15 +3,21 @@
 #include <spdlog/sinks/null_sink.h>
 #include <spdlog/sinks/rotating_file_sink.h>
 #include <spdlog/sinks/stdout_sinks.h>
+#include <spdlog/sinks/syslog_sink.h>
 
 #include <vector>
 
 namespace plateau {
 
 std::shared_ptr<spdlog::logger> MakeRunLogger(const std::string& run_folder,
-                                              const std::string& run_name, bool quiet) {
+                                              const std::string& run_name, bool quiet,
+                                              bool syslog) {
   std::vector<spdlog::sink_ptr> sinks;
   if (!quiet) sinks.push_back(std::make_shared<spdlog::sinks::stderr_sink_mt>());
+  if (syslog) {
+    sinks.push_back(std::make_shared<spdlog::sinks::syslog_sink_mt>("plateau", LOG_PID, LOG_USER,
+                                                                     false));
+  }
   std::string file_problem;
   const std::string path = run_folder + "/" + run_name + ".plateau.log";
   try {

@@ -10,10 +10,12 @@
 
 namespace plateau {
 
-// Logs to stderr (unless `quiet`) and to "<run_folder>/<run_name>.plateau.log" (5 MiB, 3 files
-// kept). A log file that cannot be created leaves the console sink and says so on it.
+// Logs to stderr (unless `quiet`), to "<run_folder>/<run_name>.plateau.log" (5 MiB, 3 files
+// kept) and, with `syslog`, to the system log as "plateau". A log file that cannot be created
+// leaves the other sinks and says so on them.
 std::shared_ptr<spdlog::logger> MakeRunLogger(const std::string& run_folder,
-                                              const std::string& run_name, bool quiet);
+                                              const std::string& run_name, bool quiet,
+                                              bool syslog = false);
 
 // A logger that drops everything, for tests and one-shot commands.
 std::shared_ptr<spdlog::logger> MakeSilentLogger();

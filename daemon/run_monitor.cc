@@ -76,7 +76,7 @@ RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
     }
     tails_.push_back(std::make_unique<SourceTail>(source, requests, config_.blocks, log_));
   }
-  for (const StatisticConfig& s : config_.statistics) {
+  for (StatisticConfig& s : config_.statistics) {
     tracked_.push_back(
         {&s, TailOf(s.source), ConvergenceTracker(s.request.name, s.target, SettingsFor(config_, s))});
   }
@@ -205,6 +205,59 @@ void RunMonitor::WatchInput(const CycleRecord& record, double wall_time,
   }
   bad_lines_seen_ = bad;
   bad_lines_since_ = wall_time;
+}
+
+std::vector<RunMonitor::SourceCounters> RunMonitor::Counters() const {
+  std::vector<SourceCounters> counters;
+  for (const auto& tail : tails_) {
+    SourceCounters c;
+    c.source = tail->config().name;
+    c.bad_lines = tail->bad_lines();
+    c.last_sample_wall = tail->last_sample_wall_time();
+    if (const SourceStatistics* s = tail->statistics()) {
+      // Every statistic of a source sees every admitted row, and its count is checkpointed.
+      for (const Statistic& statistic : s->statistics()) {
+        c.samples = std::max<std::uint64_t>(c.samples, statistic.history().sample_count());
+      }
+    }
+    counters.push_back(c);
+  }
+  return counters;
+}
+
+std::string RunMonitor::Reload(const RunConfig& fresh) {
+  const bool same_layout = Fingerprint(fresh) == Fingerprint(config_);
+  for (Tracked& t : tracked_) {
+    const auto it = std::find_if(fresh.statistics.begin(), fresh.statistics.end(),
+                                 [&](const StatisticConfig& s) {
+                                   return s.request.name == t.config->request.name;
+                                 });
+    if (it == fresh.statistics.end()) continue;
+    StatisticConfig& mine = *t.config;
+    const bool target_changed =
+        it->target.has_value() != mine.target.has_value() ||
+        (it->target && (it->target->kind != mine.target->kind ||
+                        it->target->value != mine.target->value ||
+                        it->target->confidence != mine.target->confidence));
+    mine.target = it->target;
+    mine.minimum_time = it->minimum_time;
+    mine.reference = it->reference;
+    if (target_changed || config_.stop_rule.confirmations != fresh.stop_rule.confirmations) {
+      t.tracker.Retarget(mine.target, SettingsFor(fresh, mine));
+    }
+  }
+  config_.alerts = fresh.alerts;
+  config_.stop_rule = fresh.stop_rule;
+  config_.evaluation.confidence = fresh.evaluation.confidence;
+  config_.evaluation.drift_p_value = fresh.evaluation.drift_p_value;
+  config_.evaluation.minimum_effective_samples = fresh.evaluation.minimum_effective_samples;
+  config_.evaluate_every = fresh.evaluate_every;
+  config_.poll_every = fresh.poll_every;
+  config_.planned_end_time = fresh.planned_end_time;
+  config_.cores = fresh.cores;
+  return same_layout ? "config reloaded: targets, alerts and intervals apply now"
+                     : "config reloaded: targets, alerts and intervals apply now; the sources or "
+                       "statistics changed too, which takes a restart of plateau watch";
 }
 
 bool RunMonitor::Poll(double wall_time) {
@@ -341,6 +394,8 @@ Status RunMonitor::Evaluate(double wall_time) {
   if (last_write_failed_) log_->info("the store accepts writes again (cycle {})", record.cycle);
   last_write_failed_ = false;
   cycle_ = record.cycle;
+  record.checkpoint.clear();  // kept in the store; memory keeps what status and metrics show
+  last_cycle_ = std::move(record);
   for (const EventRow& e : pending_events_) log_->info("event {}: {}", e.kind, e.message);
   pending_events_.clear();
   log_->debug("cycle {}: {} of {} targets met", cycle_, met, targets);

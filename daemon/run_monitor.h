@@ -39,6 +39,22 @@ class RunMonitor {
 
   bool run_met() const { return run_met_; }
   RunStore& store() { return *store_; }
+  // The last cycle written (its snapshots and run fields; no checkpoint); cycle 0 before any.
+  const CycleRecord& last_cycle() const { return last_cycle_; }
+
+  struct SourceCounters {
+    std::string source;
+    std::uint64_t samples = 0;  // admitted (after the restart-overlap gate)
+    std::uint64_t bad_lines = 0;
+    double last_sample_wall = 0.0;  // NaN before the first
+  };
+  std::vector<SourceCounters> Counters() const;
+
+  // Applies a reloaded config: targets, stop-rule settings, alerts and intervals take effect now,
+  // keeping every estimate and the confirmations counted so far for unchanged targets. Sources
+  // and statistics cannot change without a restart: when they differ, the rest is still applied
+  // and the returned message says so.
+  std::string Reload(const RunConfig& fresh);
   double progress_rate() const { return rate_.PerHour(); }
   std::int64_t cycle() const { return cycle_; }
   const RunConfig& config() const { return config_; }
@@ -50,7 +66,7 @@ class RunMonitor {
 
  private:
   struct Tracked {
-    const StatisticConfig* config;
+    StatisticConfig* config;  // into config_.statistics, which never changes size
     SourceTail* tail;
     ConvergenceTracker tracker;
   };
@@ -77,6 +93,7 @@ class RunMonitor {
   std::uint64_t bad_lines_seen_ = 0;
   double bad_lines_since_;  // wall time of bad_lines_seen_; NaN: no baseline yet
   bool bad_lines_alarm_ = false;
+  CycleRecord last_cycle_;
 };
 
 }  // namespace plateau

@@ -85,8 +85,6 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
         << (errors.size() == 1 ? "" : "s") << " in " << config_path << "\n";
     return 2;
   }
-  if (evaluate_every) config->evaluate_every = *evaluate_every;
-  if (poll_every) config->poll_every = *poll_every;
 
   Status status;
   std::unique_ptr<StoreLock> lock = StoreLock::Acquire(config->store_path, &status);
@@ -100,16 +98,15 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
     err << "plateau watch: " << status.message() << "\n";
     return 2;
   }
-  const auto log = MakeRunLogger(config->run_folder, config->run_name, quiet);
+  const auto log = MakeRunLogger(config->run_folder, config->run_name, quiet, config->alerts.syslog);
   log->info("watching run '{}': {} sources, {} statistics; store {}; polling every {} s, "
             "evaluating every {} s",
             config->run_name, config->sources.size(), config->statistics.size(),
-            config->store_path, config->poll_every, config->evaluate_every);
-  const double poll_seconds = config->poll_every;
-  const double evaluate_seconds = config->evaluate_every;
+            config->store_path, poll_every.value_or(config->poll_every),
+            evaluate_every.value_or(config->evaluate_every));
   RunMonitor monitor(std::move(*config), std::move(store), log);
   monitor.Restore();
-  WatchLoop loop(monitor, poll_seconds, evaluate_seconds, log);
+  WatchLoop loop(monitor, poll_every, evaluate_every, log);
   const int code = loop.Run();
   log->info("stopped after cycle {}", monitor.cycle());
   return code;

@@ -7,6 +7,8 @@
 #include <csignal>
 #include <cstring>
 
+#include "config/config_loader.h"
+
 namespace plateau {
 namespace {
 
@@ -29,6 +31,10 @@ void InstallEarlyStopHandler() {
   sigemptyset(&action.sa_mask);
   sigaction(SIGINT, &action, nullptr);
   sigaction(SIGTERM, &action, nullptr);
+  // A SIGHUP before the loop listens for it must not end the daemon (its default action).
+  struct sigaction ignore {};
+  ignore.sa_handler = SIG_IGN;
+  sigaction(SIGHUP, &ignore, nullptr);
 }
 
 int EarlyStopSignal() { return early_stop_signal; }
@@ -38,16 +44,48 @@ double WallSeconds() {
       .count();
 }
 
-WatchLoop::WatchLoop(RunMonitor& monitor, double poll_seconds, double evaluate_seconds,
-                     std::shared_ptr<spdlog::logger> log)
+WatchLoop::WatchLoop(RunMonitor& monitor, std::optional<double> poll_override,
+                     std::optional<double> evaluate_override, std::shared_ptr<spdlog::logger> log)
     : monitor_(monitor),
-      poll_seconds_(poll_seconds),
-      evaluate_seconds_(evaluate_seconds),
+      poll_override_(poll_override),
+      evaluate_override_(evaluate_override),
+      poll_seconds_(poll_override.value_or(monitor.config().poll_every)),
+      evaluate_seconds_(evaluate_override.value_or(monitor.config().evaluate_every)),
       log_(std::move(log)),
       poll_timer_(io_),
       evaluate_timer_(io_),
       signals_(io_, SIGINT, SIGTERM),
-      alerts_(io_, monitor, log_) {}
+      hang_up_(io_, SIGHUP),
+      alerts_(io_, monitor, log_),
+      query_(io_, monitor, [this] { return Reload(); }, log_),
+      metrics_(io_, monitor, log_) {}
+
+std::string WatchLoop::Reload() {
+  std::vector<ConfigError> errors;
+  const std::optional<RunConfig> fresh = LoadRunConfig(monitor_.config().config_path, &errors);
+  if (!fresh) {
+    const std::string message = "config reload failed (" + std::to_string(errors.size()) +
+                                " problems, the first: " + errors.front().ToString() +
+                                "); the current config stays";
+    log_->error("{}", message);
+    return message;
+  }
+  const std::string message = monitor_.Reload(*fresh);
+  poll_seconds_ = poll_override_.value_or(monitor_.config().poll_every);
+  evaluate_seconds_ = evaluate_override_.value_or(monitor_.config().evaluate_every);
+  ScheduleEvaluation();
+  log_->info("{}", message);
+  return message;
+}
+
+void WatchLoop::WaitForHangUp() {
+  hang_up_.async_wait([this](const boost::system::error_code& error, int) {
+    if (error) return;
+    log_->info("SIGHUP: reloading {}", monitor_.config().config_path);
+    Reload();
+    WaitForHangUp();
+  });
+}
 
 void WatchLoop::Evaluate() {
   // Alerts go out right after the cycle that recorded their events.
@@ -154,6 +192,17 @@ int WatchLoop::Run() {
   if (const int signal = EarlyStopSignal()) {
     Stop(signal);
     return exit_code_;
+  }
+  WaitForHangUp();
+  const Status socket = query_.Start(monitor_.config().socket_path);
+  if (!socket.ok()) log_->warn("{}; status and check read the store instead", socket.message());
+  if (!monitor_.config().metrics_listen.empty()) {
+    const Status metrics = metrics_.Start(monitor_.config().metrics_listen);
+    if (metrics.ok()) {
+      log_->info("metrics at http://{}/metrics", monitor_.config().metrics_listen);
+    } else {
+      log_->error("{}", metrics.message());
+    }
   }
   StartInotify();
   PollNow();

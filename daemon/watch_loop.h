@@ -19,14 +19,18 @@
 #include <string>
 
 #include "daemon/alert_dispatcher.h"
+#include "daemon/metrics_server.h"
+#include "daemon/query_server.h"
 #include "daemon/run_monitor.h"
 
 namespace plateau {
 
 class WatchLoop {
  public:
-  WatchLoop(RunMonitor& monitor, double poll_seconds, double evaluate_seconds,
-            std::shared_ptr<spdlog::logger> log);
+  // Intervals come from the monitor's config unless given here (the command line's overrides,
+  // which a reloaded config does not replace).
+  WatchLoop(RunMonitor& monitor, std::optional<double> poll_override,
+            std::optional<double> evaluate_override, std::shared_ptr<spdlog::logger> log);
   ~WatchLoop();
 
   // Runs until SIGINT or SIGTERM; returns the process exit code (0 after a clean stop).
@@ -40,10 +44,15 @@ class WatchLoop {
   void PollNow();
   void ScheduleEvaluation();
   void Stop(int signal);
+  void WaitForHangUp();
+  // Loads the config file again and applies what can change while running; returns what it did.
+  std::string Reload();
 
   void Evaluate();
 
   RunMonitor& monitor_;
+  std::optional<double> poll_override_;
+  std::optional<double> evaluate_override_;
   double poll_seconds_;
   double evaluate_seconds_;
   std::shared_ptr<spdlog::logger> log_;
@@ -51,7 +60,10 @@ class WatchLoop {
   boost::asio::steady_timer poll_timer_;
   boost::asio::steady_timer evaluate_timer_;
   boost::asio::signal_set signals_;
+  boost::asio::signal_set hang_up_;
   AlertDispatcher alerts_;
+  QueryServer query_;
+  MetricsServer metrics_;
   std::optional<boost::asio::posix::stream_descriptor> inotify_;
   std::array<char, 4096> inotify_buffer_{};
   std::set<std::string> watched_;

@@ -1,0 +1,282 @@
+#include "daemon/status_report.h"
+
+#include <cmath>
+#include <cstdio>
+#include <ctime>
+#include <limits>
+
+#include "daemon/analysis_report.h"
+#include "daemon/json_writer.h"
+#include "daemon/text_table.h"
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+std::string Ago(double seconds) {
+  if (std::isnan(seconds)) return "-";
+  char buffer[32];
+  if (seconds < 120) {
+    std::snprintf(buffer, sizeof buffer, "%.0f s", seconds);
+  } else if (seconds < 7200) {
+    std::snprintf(buffer, sizeof buffer, "%.1f min", seconds / 60);
+  } else if (seconds < 172800) {
+    std::snprintf(buffer, sizeof buffer, "%.1f h", seconds / 3600);
+  } else {
+    std::snprintf(buffer, sizeof buffer, "%.1f d", seconds / 86400);
+  }
+  return buffer;
+}
+
+std::string UtcTime(double wall) {
+  if (std::isnan(wall)) return "-";
+  const std::time_t t = static_cast<std::time_t>(wall);
+  std::tm tm{};
+  gmtime_r(&t, &tm);
+  char buffer[32];
+  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
+  return buffer;
+}
+
+std::string StateWords(const std::string& state) {
+  std::string words = state;
+  for (char& c : words) c = c == '_' ? ' ' : c;
+  return words;
+}
+
+std::string TargetCell(const SnapshotRow& s) {
+  if (s.target_kind.empty()) return "-";
+  return s.target_kind == "relative" ? FormatPercent(s.target_value) : FormatValue(s.target_value);
+}
+
+std::string DaemonLine(const StatusContext& c, double age) {
+  if (c.daemon_pid > 0) return "the daemon is running (process " + std::to_string(c.daemon_pid) + ")";
+  if (c.daemon_pid < 0) return "the daemon is running";
+  return "the daemon is not running: these numbers are " + Ago(age) + " old";
+}
+
+struct Tally {
+  int targets = 0;
+  int met = 0;
+  const SnapshotRow* first_unmet = nullptr;
+  const SnapshotRow* column_missing = nullptr;
+};
+
+Tally Count(const LatestView& v) {
+  Tally t;
+  for (const SnapshotRow& s : v.statistics) {
+    if (s.state == "column_missing" && !t.column_missing) t.column_missing = &s;
+    if (s.target_kind.empty()) continue;
+    ++t.targets;
+    if (s.state == "met") {
+      ++t.met;
+    } else if (!t.first_unmet) {
+      t.first_unmet = &s;
+    }
+  }
+  return t;
+}
+
+double NumberOr(const JsonValue* v) {
+  return v != nullptr && v->type() == JsonValue::Type::kNumber ? v->number() : kNaN;
+}
+
+std::string TextOr(const JsonValue* v) {
+  return v != nullptr && v->type() == JsonValue::Type::kString ? v->string() : "";
+}
+
+}  // namespace
+
+std::string StatusTable(const LatestView& v, const StatusContext& c) {
+  std::string out = "run '" + v.run_name + "': cycle " + std::to_string(v.cycle) + ", evaluated " +
+                    Ago(c.now - v.wall_time) + " ago (" + UtcTime(v.wall_time) + "); " +
+                    DaemonLine(c, c.now - v.wall_time) + "\n";
+  out += "newest sample: time " + FormatValue(v.last_sample_time) + ", read " +
+         Ago(c.now - v.last_sample_wall_time) + " ago\n\n";
+  using A = TextTable::Align;
+  TextTable table({{"statistic", A::kLeft},
+                   {"value", A::kRight},
+                   {"± half-width", A::kRight},
+                   {"conf.", A::kRight},
+                   {"relative", A::kRight},
+                   {"target", A::kRight},
+                   {"τ [samples]", A::kRight},
+                   {"n_eff", A::kRight},
+                   {"warm-up ends", A::kRight},
+                   {"state", A::kLeft},
+                   {"met at", A::kRight}});
+  for (const SnapshotRow& s : v.statistics) {
+    char tau[32], neff[32];
+    std::snprintf(tau, sizeof tau, "%.3g", s.integrated_time);
+    std::snprintf(neff, sizeof neff, "%.0f", s.effective_samples);
+    const bool estimated = !std::isnan(s.half_width);
+    table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
+                  FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
+                  estimated ? tau : "-", estimated ? neff : "-", FormatValue(s.warmup_end_time),
+                  StateWords(s.state), FormatValue(s.met_at_time)});
+  }
+  out += table.Render() + "\n";
+  const Tally t = Count(v);
+  if (t.targets == 0) {
+    out += "no statistic has a target: nothing to stop on\n";
+  } else if (v.run_met) {
+    out += "every target is met (" + std::to_string(t.met) + " of " + std::to_string(t.targets) +
+           "): stop the solver\n";
+  } else {
+    out += std::to_string(t.met) + " of " + std::to_string(t.targets) + " targets met: continue\n";
+  }
+  bool header = false;
+  for (const SnapshotRow& s : v.statistics) {
+    if (s.state == "met" || s.state == "monitored" || s.state_reason.empty()) continue;
+    if (!header) out += "\nnotes:\n";
+    header = true;
+    out += "  " + s.statistic + ": " + StateWords(s.state) + ": " + s.state_reason + "\n";
+  }
+  return out;
+}
+
+std::string StatusJson(const LatestView& v, const StatusContext& c) {
+  const Tally t = Count(v);
+  JsonWriter json;
+  json.BeginObject();
+  json.Field("run", v.run_name);
+  json.Field("store", c.store_path);
+  json.Field("answered_by", c.answered_by);
+  json.Field("cycle", v.cycle);
+  json.Field("evaluated_at", v.wall_time);
+  json.Field("age_seconds", c.now - v.wall_time);
+  json.Field("last_sample_time", v.last_sample_time);
+  json.Field("last_sample_read_at", v.last_sample_wall_time);
+  json.Field("last_sample_age_seconds", c.now - v.last_sample_wall_time);
+  json.Key("daemon");
+  json.BeginObject();
+  json.Field("running", c.daemon_pid != 0);
+  json.Key("pid");
+  if (c.daemon_pid > 0) {
+    json.Integer(c.daemon_pid);
+  } else {
+    json.Null();
+  }
+  json.EndObject();
+  json.Field("run_met", v.run_met);
+  json.Field("targets", t.targets);
+  json.Field("targets_met", t.met);
+  json.Key("statistics");
+  json.BeginArray();
+  for (const SnapshotRow& s : v.statistics) json.Raw(s.json);
+  json.EndArray();
+  json.Key("files");
+  json.BeginArray();
+  for (const FileProgress& f : v.files) {
+    json.BeginObject();
+    json.Field("path", f.path);
+    json.Field("source", f.source);
+    json.Field("rows", f.rows);
+    json.Field("bad_lines", f.bad_lines);
+    json.Field("last_time", f.last_time);
+    json.Field("vanished", f.vanished);
+    json.EndObject();
+  }
+  json.EndArray();
+  json.EndObject();
+  return json.text();
+}
+
+std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* c) {
+  const JsonValue* statistics = d.Find("statistics");
+  if (!d.is_object() || statistics == nullptr || d.Find("cycle") == nullptr) return std::nullopt;
+  LatestView v;
+  v.run_name = TextOr(d.Find("run"));
+  v.cycle = static_cast<std::int64_t>(NumberOr(d.Find("cycle")));
+  v.wall_time = NumberOr(d.Find("evaluated_at"));
+  v.last_sample_time = NumberOr(d.Find("last_sample_time"));
+  v.last_sample_wall_time = NumberOr(d.Find("last_sample_read_at"));
+  const JsonValue* met = d.Find("run_met");
+  v.run_met = met != nullptr && met->boolean();
+  c->store_path = TextOr(d.Find("store"));
+  c->answered_by = TextOr(d.Find("answered_by"));
+  if (const JsonValue* daemon = d.Find("daemon")) {
+    const double pid = NumberOr(daemon->Find("pid"));
+    const JsonValue* running = daemon->Find("running");
+    c->daemon_pid = !std::isnan(pid) ? static_cast<long>(pid)
+                                     : (running != nullptr && running->boolean() ? -1 : 0);
+  }
+  for (const JsonValue& s : statistics->array()) {
+    SnapshotRow row;
+    row.statistic = TextOr(s.Find("name"));
+    row.state = TextOr(s.Find("state"));
+    row.state_reason = TextOr(s.Find("state_reason"));
+    row.value = NumberOr(s.Find("mean"));
+    row.half_width = NumberOr(s.Find("half_width"));
+    row.relative_half_width = NumberOr(s.Find("relative_half_width"));
+    row.integrated_time = NumberOr(s.Find("integrated_time"));
+    row.effective_samples = NumberOr(s.Find("effective_samples"));
+    row.warmup_end_time = NumberOr(s.Find("warmup_end_time"));
+    row.samples_used = static_cast<std::int64_t>(NumberOr(s.Find("samples_used")));
+    row.last_time = NumberOr(s.Find("last_time"));
+    row.confidence = NumberOr(s.Find("confidence"));
+    if (const JsonValue* target = s.Find("target"); target && target->is_object()) {
+      row.target_kind = TextOr(target->Find("kind"));
+      row.target_value = NumberOr(target->Find("value"));
+    }
+    row.target_half_width = NumberOr(s.Find("target_half_width"));
+    const JsonValue* met_at = s.Find("met_at");
+    row.met_at_time = met_at && met_at->is_object() ? NumberOr(met_at->Find("simulated_time")) : kNaN;
+    row.met_at_wall = met_at && met_at->is_object() ? NumberOr(met_at->Find("wall_time")) : kNaN;
+    v.statistics.push_back(std::move(row));
+  }
+  if (const JsonValue* files = d.Find("files")) {
+    for (const JsonValue& f : files->array()) {
+      FileProgress p;
+      p.path = TextOr(f.Find("path"));
+      p.source = TextOr(f.Find("source"));
+      p.rows = static_cast<std::int64_t>(NumberOr(f.Find("rows")));
+      p.bad_lines = static_cast<std::int64_t>(NumberOr(f.Find("bad_lines")));
+      p.last_time = NumberOr(f.Find("last_time"));
+      const JsonValue* vanished = f.Find("vanished");
+      p.vanished = vanished != nullptr && vanished->boolean();
+      v.files.push_back(std::move(p));
+    }
+  }
+  return v;
+}
+
+CheckAnswer Check(const LatestView& v, const StatusContext& c, const std::string& stat) {
+  const std::string when = " (cycle " + std::to_string(v.cycle) + ", evaluated " +
+                           Ago(c.now - v.wall_time) + " ago" +
+                           (c.daemon_pid == 0 ? "; the daemon is not running" : "") + ")";
+  if (!stat.empty()) {
+    for (const SnapshotRow& s : v.statistics) {
+      if (s.statistic != stat) continue;
+      if (s.state == "column_missing" || s.target_kind.empty()) {
+        return {2, "cannot tell: " + stat + " " +
+                       (s.target_kind.empty() ? "has no target" : s.state_reason) + when};
+      }
+      if (s.state == "met") {
+        return {0, "stop: " + stat + " met its target at time " + FormatValue(s.met_at_time) + when};
+      }
+      return {1, "continue: " + stat + " is " + StateWords(s.state) + ": " + s.state_reason + when};
+    }
+    return {2, "cannot tell: no statistic named '" + stat + "'"};
+  }
+  const Tally t = Count(v);
+  if (t.column_missing) {
+    return {2, "cannot tell: " + t.column_missing->statistic + ": " +
+                   t.column_missing->state_reason + when};
+  }
+  if (t.targets == 0) return {2, "cannot tell: no statistic has a target" + when};
+  if (v.run_met) {
+    return {0, "stop: every target is met (" + std::to_string(t.met) + " of " +
+                   std::to_string(t.targets) + ")" + when};
+  }
+  std::string message = "continue: " + std::to_string(t.met) + " of " +
+                        std::to_string(t.targets) + " targets met";
+  if (t.first_unmet) {
+    message += "; " + t.first_unmet->statistic + " is " + StateWords(t.first_unmet->state) + ": " +
+               t.first_unmet->state_reason;
+  }
+  return {1, message + when};
+}
+
+}  // namespace plateau

@@ -1,0 +1,190 @@
+// The query socket and the metrics endpoint of the real daemon, and SIGHUP reloads.
+#include <arpa/inet.h>
+#include <gtest/gtest.h>
+#include <netinet/in.h>
+#include <sys/socket.h>
+#include <sys/stat.h>
+#include <sys/un.h>
+
+#include <filesystem>
+#include <fstream>
+#include <regex>
+#include <thread>
+
+#include "daemon/query_server.h"
+#include "tests/daemon/run_folder.h"
+
+namespace plateau {
+namespace {
+
+using testing::ProbeRows;
+using testing::ReadAll;
+using testing::WaitFor;
+using testing::WatchDaemon;
+
+// One raw exchange on the socket: `bytes` sent as they are, the first reply line returned.
+std::string Exchange(const std::string& path, const std::string& bytes) {
+  sockaddr_un address{};
+  address.sun_family = AF_UNIX;
+  std::snprintf(address.sun_path, sizeof address.sun_path, "%s", path.c_str());
+  const int fd = ::socket(AF_UNIX, SOCK_STREAM, 0);
+  timeval limit{5, 0};
+  ::setsockopt(fd, SOL_SOCKET, SO_RCVTIMEO, &limit, sizeof limit);
+  std::string reply;
+  if (::connect(fd, reinterpret_cast<sockaddr*>(&address), sizeof address) == 0) {
+    ::send(fd, bytes.data(), bytes.size(), MSG_NOSIGNAL);
+    char chunk[4096];
+    ssize_t n;
+    while ((n = ::recv(fd, chunk, sizeof chunk, 0)) > 0) {
+      reply.append(chunk, static_cast<std::size_t>(n));
+      if (reply.back() == '\n') break;
+    }
+  }
+  ::close(fd);
+  return reply;
+}
+
+// GET on 127.0.0.1:port; the whole response.
+std::string HttpGet(int port, const std::string& target) {
+  const int fd = ::socket(AF_INET, SOCK_STREAM, 0);
+  sockaddr_in address{};
+  address.sin_family = AF_INET;
+  address.sin_port = htons(static_cast<std::uint16_t>(port));
+  ::inet_pton(AF_INET, "127.0.0.1", &address.sin_addr);
+  timeval limit{5, 0};
+  ::setsockopt(fd, SOL_SOCKET, SO_RCVTIMEO, &limit, sizeof limit);
+  std::string response;
+  if (::connect(fd, reinterpret_cast<sockaddr*>(&address), sizeof address) == 0) {
+    const std::string request = "GET " + target + " HTTP/1.1\r\nHost: 127.0.0.1\r\n\r\n";
+    ::send(fd, request.data(), request.size(), MSG_NOSIGNAL);
+    char chunk[4096];
+    ssize_t n;
+    while ((n = ::recv(fd, chunk, sizeof chunk, 0)) > 0) response.append(chunk, n);
+  }
+  ::close(fd);
+  return response;
+}
+
+int FreePort() {
+  const int fd = ::socket(AF_INET, SOCK_STREAM, 0);
+  sockaddr_in address{};
+  address.sin_family = AF_INET;
+  ::inet_pton(AF_INET, "127.0.0.1", &address.sin_addr);
+  ::bind(fd, reinterpret_cast<sockaddr*>(&address), sizeof address);
+  socklen_t size = sizeof address;
+  ::getsockname(fd, reinterpret_cast<sockaddr*>(&address), &size);
+  ::close(fd);
+  return ntohs(address.sin_port);
+}
+
+class QueryAndMetrics : public testing::RunFolder {
+ protected:
+  std::string Socket() { return Path("plateau.db.sock"); }
+  void StartWithData(WatchDaemon*& daemon, const std::string& settings = "") {
+    WriteConfig("{relative: 0.01}", "", settings);
+    Append("run1/probe.dat", "# time x y\n" + ProbeRows(3000).Rows(0, 3000));
+    daemon = new WatchDaemon(Path("run.yaml"), Path("watch.log"));
+    ASSERT_TRUE(WaitFor([&] { return Samples() == 3000; }, 10));
+    ASSERT_TRUE(WaitFor([&] { return std::filesystem::exists(Socket()); }, 10));
+  }
+};
+
+TEST_F(QueryAndMetrics, SocketIsPrivateAndAnswersLineByLine) {
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon);
+  std::unique_ptr<WatchDaemon> owner(daemon);
+  struct stat info {};
+  ASSERT_EQ(::stat(Socket().c_str(), &info), 0);
+  EXPECT_TRUE(S_ISSOCK(info.st_mode));
+  EXPECT_EQ(info.st_mode & 0777, 0600u);
+  const std::string status = Exchange(Socket(), "{\"request\":\"status\"}\n");
+  EXPECT_NE(status.find("\"answered_by\":\"daemon\""), std::string::npos) << status;
+  EXPECT_NE(status.find("\"samples_total\":3000"), std::string::npos);
+  const std::string check = Exchange(Socket(), "{\"request\":\"check\"}\n");
+  EXPECT_NE(check.find("\"answer\":\"continue\""), std::string::npos) << check;
+  EXPECT_NE(Exchange(Socket(), "{\"request\":\"events\",\"after\":0}\n").find("\"events\":["),
+            std::string::npos);
+  // Through the commands: the daemon answers while it runs.
+  const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
+  EXPECT_NE(json.out.find("\"answered_by\":\"daemon\""), std::string::npos);
+}
+
+TEST_F(QueryAndMetrics, MalformedUnknownAndOversizedRequestsGetAnErrorObject) {
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon);
+  std::unique_ptr<WatchDaemon> owner(daemon);
+  EXPECT_EQ(Exchange(Socket(), "{\"request\": status}\n"),
+            "{\"error\":\"not JSON: at byte 12: expected a value\"}\n");
+  EXPECT_EQ(Exchange(Socket(), "{\"request\":\"shutdown\"}\n"),
+            "{\"error\":\"unknown request 'shutdown'; expected status, check, events or "
+            "reload\"}\n");
+  const std::string huge = "{\"request\":\"" + std::string(100000, 'a') + "\"}\n";
+  EXPECT_EQ(Exchange(Socket(), huge),
+            "{\"error\":\"request longer than 65536 bytes; the connection is closed\"}\n");
+  EXPECT_TRUE(daemon->Running());
+  EXPECT_NE(Exchange(Socket(), "{\"request\":\"status\"}\n").find("\"cycle\":"), std::string::npos);
+}
+
+TEST_F(QueryAndMetrics, StatusFallsBackToTheStoreWhenTheDaemonIsGone) {
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon);
+  delete daemon;  // SIGKILL: the socket file stays, nobody answers on it
+  const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
+  EXPECT_EQ(json.exit_code, 0) << json.err;
+  EXPECT_NE(json.out.find("\"answered_by\":\"store\""), std::string::npos) << json.out;
+  EXPECT_NE(json.out.find("\"running\":false"), std::string::npos);
+}
+
+TEST_F(QueryAndMetrics, MetricsAreScrapedInThePrometheusTextFormat) {
+  const int port = FreePort();
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon, "metrics: {listen: 127.0.0.1:" + std::to_string(port) + "}\n");
+  std::unique_ptr<WatchDaemon> owner(daemon);
+  std::string response;
+  ASSERT_TRUE(WaitFor([&] { return (response = HttpGet(port, "/metrics")).find("200 OK") !=
+                                   std::string::npos; },
+                      10));
+  EXPECT_NE(response.find("Content-Type: text/plain; version=0.0.4"), std::string::npos);
+  const std::string body = response.substr(response.find("\r\n\r\n") + 4);
+  // Every line is a comment or `name{labels} value`, per the exposition format.
+  const std::regex sample(R"(^[a-z_]+\{([a-z_]+="(\\.|[^"\\])*",?)+\} (NaN|[+-]?Inf|[-+0-9.eE]+)$)");
+  std::istringstream lines(body);
+  std::string line;
+  int samples = 0;
+  while (std::getline(lines, line)) {
+    if (line.rfind("# HELP ", 0) == 0 || line.rfind("# TYPE ", 0) == 0) continue;
+    EXPECT_TRUE(std::regex_match(line, sample)) << line;
+    ++samples;
+  }
+  EXPECT_GE(samples, 11);
+  EXPECT_NE(body.find("plateau_statistic_met{run=\"test\",statistic=\"x\"} 0"), std::string::npos);
+  EXPECT_NE(body.find("plateau_source_samples_total{run=\"test\",source=\"probe\"} 3000"),
+            std::string::npos)
+      << body;
+  EXPECT_NE(body.find("# TYPE plateau_source_bad_lines_total counter"), std::string::npos);
+  EXPECT_NE(HttpGet(port, "/other").find("404 Not Found"), std::string::npos);
+}
+
+TEST_F(QueryAndMetrics, HangUpReloadsTargetsAndKeepsTheOldConfigWhenTheNewOneIsBroken) {
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon);
+  std::unique_ptr<WatchDaemon> owner(daemon);
+  WriteConfig("{relative: 0.5}");  // loose enough to be met
+  daemon->Signal(SIGHUP);
+  ASSERT_TRUE(WaitFor([&] { return Plateau({"status", "--json", Path("run.yaml")}).out.find(
+                                       "\"kind\":\"relative\",\"value\":0.5") != std::string::npos; },
+                      10))
+      << ReadAll(Path("test.plateau.log"));
+  Append("run1/probe.dat", ProbeRows(6000).Rows(3000, 6000));
+  std::ofstream(Path("run.yaml")) << "sources: [\n";  // broken
+  daemon->Signal(SIGHUP);
+  ASSERT_TRUE(WaitFor([&] { return ReadAll(Path("test.plateau.log")).find(
+                                       "config reload failed") != std::string::npos; },
+                      10));
+  EXPECT_TRUE(daemon->Running());
+  EXPECT_NE(Exchange(Socket(), "{\"request\":\"status\"}\n").find("\"value\":0.5"),
+            std::string::npos);
+}
+
+}  // namespace
+}  // namespace plateau
