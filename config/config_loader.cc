@@ -108,6 +108,7 @@ class Loader {
   std::optional<EmailConfig> LoadEmail(const YAML::Node& node);
   std::optional<CommandConfig> LoadCommand(const YAML::Node& node);
   void LoadMetrics(const YAML::Node& node, RunConfig& c);
+  std::optional<GroupConfig> LoadGroup(const YAML::Node& node, const RunConfig& c);
   bool Flag(const YAML::Node& node, const std::string& what, bool* value) {
     if (node.IsScalar() && (node.Scalar() == "true" || node.Scalar() == "false")) {
       *value = node.Scalar() == "true";
@@ -472,6 +473,50 @@ void Loader::LoadAlerts(const YAML::Node& node, AlertsConfig& a) {
   if (node["syslog"]) Flag(node["syslog"], "syslog", &a.syslog);
 }
 
+std::optional<GroupConfig> Loader::LoadGroup(const YAML::Node& node, const RunConfig& c) {
+  if (!node.IsMap()) {
+    Error(node, "a group must be a map with name and members");
+    return std::nullopt;
+  }
+  CheckKeys(node, {"name", "members", "bonferroni", "confidence", "required"}, "a group");
+  GroupConfig g;
+  g.confidence = c.evaluation.confidence;
+  bool ok = true;
+  if (!node["name"] || !node["members"]) {
+    Error(node, "a group needs a name and members");
+    return std::nullopt;
+  }
+  g.name = Text(node["name"], "name").value_or("");
+  g.members = TextList(node["members"], "members");
+  for (const std::string& m : g.members) {
+    const auto s = std::find_if(c.statistics.begin(), c.statistics.end(),
+                                [&](const StatisticConfig& x) { return x.request.name == m; });
+    if (s == c.statistics.end()) {
+      Error(node["members"], "group '" + g.name + "' names statistic '" + m +
+                                 "', which is not defined");
+      ok = false;
+    } else if (!s->target) {
+      Error(node["members"], "group '" + g.name + "' member '" + m +
+                                 "' has no target: a group stops on its members' targets");
+      ok = false;
+    }
+  }
+  if (std::any_of(c.statistics.begin(), c.statistics.end(),
+                  [&](const StatisticConfig& x) { return x.request.name == g.name; })) {
+    Error(node["name"], "group name '" + g.name + "' is also a statistic's name");
+    ok = false;
+  }
+  if (node["bonferroni"]) ok = Flag(node["bonferroni"], "bonferroni", &g.bonferroni) && ok;
+  if (node["required"]) ok = Flag(node["required"], "required", &g.required) && ok;
+  if (node["confidence"]) {
+    auto v = Number(node["confidence"], "confidence", 0.0, 0.999999, true,
+                    "a fraction between 0 and 1, such as 0.95");
+    ok = ok && v.has_value();
+    if (v) g.confidence = *v;
+  }
+  return ok ? std::optional<GroupConfig>(g) : std::nullopt;
+}
+
 void Loader::LoadMetrics(const YAML::Node& node, RunConfig& c) {
   if (!node.IsMap()) {
     Error(node, "metrics must be a map such as {listen: 127.0.0.1:9464}");
@@ -515,7 +560,7 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
             {"run", "store", "evaluate_every", "poll_every", "confidence", "batches", "warmup",
              "confirmations", "minimum_effective_samples", "drift_p_value", "blocks",
              "planned_end_time", "cores", "socket", "metrics", "alerts", "sources",
-             "statistics"},
+             "statistics", "groups"},
             "the run settings");
   LoadSettings(root, c);
   const YAML::Node sources = root["sources"];
@@ -541,6 +586,15 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
           Error(node, "statistic name '" + s->request.name + "' repeats; give one a name");
         }
         c.statistics.push_back(*s);
+      }
+    }
+  }
+  if (const YAML::Node groups = root["groups"]) {
+    if (!groups.IsSequence()) {
+      Error(groups, "groups must be a list of groups");
+    } else {
+      for (const YAML::Node& node : groups) {
+        if (auto g = LoadGroup(node, c)) c.groups.push_back(*g);
       }
     }
   }

@@ -28,6 +28,17 @@ struct StatisticConfig {
   std::optional<double> reference;
 };
 
+// Statistics that stop jointly: a group is met when all its members are. With Bonferroni each
+// member is judged at confidence 1 - (1 - confidence) / members, so that the chance of any member's
+// interval missing is at most 1 - confidence.
+struct GroupConfig {
+  std::string name;
+  std::vector<std::string> members;
+  bool bonferroni = false;
+  double confidence = 0.95;
+  bool required = true;  // the run waits for it
+};
+
 // SMTP delivery. The password is never in the config: it is read from a file or an environment
 // variable named here, and never logged.
 struct EmailConfig {
@@ -74,6 +85,7 @@ struct RunConfig {
   std::size_t blocks = 4096;
   std::vector<SourceConfig> sources;
   std::vector<StatisticConfig> statistics;
+  std::vector<GroupConfig> groups;
   AlertsConfig alerts;
   double planned_end_time = 0.0;  // simulated time the run was planned to reach; NaN: not given
   double cores = 0.0;             // cores the solver job holds; NaN: not given

@@ -63,6 +63,14 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
          " cores: stopping now saves about " + FormatValue(std::round(hours * c.cores)) +
          " core-hours.\n";
   }
+  if (e.kind != "run_met" && std::isfinite(e.remaining_time) && e.remaining_time > 0) {
+    b += "Every target is expected to be met after " + FormatValue(e.remaining_time) +
+         " more time units" +
+         (e.progress_rate > 0 ? " (about " + Hours(e.remaining_time / e.progress_rate * 3600.0) +
+                                    " at the observed rate)"
+                              : "") +
+         ".\n";
+  }
   b += "\nRun " + c.run_name + ", store " + c.store_path + "\n" +
        "plateau measures sampling error only: a converged average is not a validated one.\n";
   m.environment = {

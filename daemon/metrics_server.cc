@@ -149,6 +149,7 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   const auto per_statistic = [&](const std::string& name, const std::string& help, auto field) {
     Family family(out, name, "gauge", help);
     for (const SnapshotRow& s : cycle.snapshots) {
+      if (s.target_kind == "group") continue;
       family.Sample(run + ",statistic=\"" + Label(s.statistic) + "\"", field(s));
     }
   };
@@ -183,6 +184,15 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   for (const RunMonitor::SourceCounters& c : counters) {
     since.Sample(run + ",source=\"" + Label(c.source) + "\"", now - c.last_sample_wall);
   }
+  Family groups(out, "plateau_group_met", "gauge", "1 when every member of the group is met, else 0.");
+  for (const SnapshotRow& s : cycle.snapshots) {
+    if (s.target_kind == "group") {
+      groups.Sample(run + ",group=\"" + Label(s.statistic) + "\"", s.state == "met" ? 1.0 : 0.0);
+    }
+  }
+  Family left(out, "plateau_run_remaining_simulated_time", "gauge",
+              "Simulated time still needed for every target (NaN: not predictable yet).");
+  left.Sample(run, cycle.remaining_time);
   Family met(out, "plateau_run_met", "gauge", "1 when every target of the run is met, else 0.");
   met.Sample(run, cycle.run_met ? 1.0 : 0.0);
   Family cycles(out, "plateau_evaluation_cycle", "gauge", "Number of the last evaluation cycle.");

@@ -4,6 +4,8 @@
 #include <cmath>
 #include <limits>
 
+#include "core/reference_check.h"
+#include "core/time_to_target.h"
 #include "daemon/analysis_report.h"
 #include "daemon/json_writer.h"
 
@@ -16,10 +18,26 @@ std::string_view TargetKindName(Target::Kind kind) {
   return kind == Target::Kind::kRelative ? "relative" : "absolute";
 }
 
+void WriteTimeToTarget(JsonWriter& json, double remaining, double wall_seconds,
+                       double wall_time) {
+  json.Key("time_to_target");
+  if (std::isnan(remaining)) {
+    json.Null();
+    return;
+  }
+  json.BeginObject();
+  json.Field("simulated", remaining);
+  json.Field("wall_seconds", wall_seconds);
+  json.Field("expected_at", wall_time + wall_seconds);
+  json.EndObject();
+}
+
 // The status object of one statistic: the keys of `plateau analyze --json`, plus the stop rule's.
 std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
-                          const ConvergenceTracker& tracker, const std::string& state,
-                          const std::string& reason) {
+                          const ConvergenceTracker& tracker, const SnapshotRow& row,
+                          double wall_time) {
+  const std::string& state = row.state;
+  const std::string& reason = row.state_reason;
   JsonWriter json;
   json.BeginObject();
   WriteEstimateFields(json, e, c.request.columns);
@@ -48,7 +66,20 @@ std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
     json.Null();
   }
   json.Field("minimum_time", c.minimum_time);
-  json.Field("reference", c.reference ? *c.reference : kNaN);
+  WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
+  json.Key("reference");
+  if (c.reference) {
+    const ReferenceComparison r = CompareWithReference(e, *c.reference);
+    json.BeginObject();
+    json.Field("value", r.reference);
+    json.Field("difference", r.difference);
+    json.Field("relative_difference", r.relative_difference);
+    json.Field("verdict", VerdictName(r.verdict));
+    json.Field("words", r.words);
+    json.EndObject();
+  } else {
+    json.Null();
+  }
   json.EndObject();
   return json.text();
 }
@@ -79,6 +110,24 @@ RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
   for (StatisticConfig& s : config_.statistics) {
     tracked_.push_back(
         {&s, TailOf(s.source), ConvergenceTracker(s.request.name, s.target, SettingsFor(config_, s))});
+  }
+  AssignConfidences();
+}
+
+void RunMonitor::AssignConfidences() {
+  for (Tracked& t : tracked_) {
+    t.confidence = t.config->target ? t.config->target->confidence : config_.evaluation.confidence;
+  }
+  for (const GroupConfig& g : config_.groups) {
+    if (!g.bonferroni || g.members.empty()) continue;
+    // Bonferroni: if each of m intervals misses with probability (1 - c) / m, any misses with at
+    // most 1 - c.
+    const double member = 1.0 - (1.0 - g.confidence) / static_cast<double>(g.members.size());
+    for (Tracked& t : tracked_) {
+      if (std::find(g.members.begin(), g.members.end(), t.config->request.name) != g.members.end()) {
+        t.confidence = std::max(t.confidence, member);
+      }
+    }
   }
 }
 
@@ -255,6 +304,8 @@ std::string RunMonitor::Reload(const RunConfig& fresh) {
   config_.poll_every = fresh.poll_every;
   config_.planned_end_time = fresh.planned_end_time;
   config_.cores = fresh.cores;
+  if (same_layout) config_.groups = fresh.groups;
+  AssignConfidences();
   return same_layout ? "config reloaded: targets, alerts and intervals apply now"
                      : "config reloaded: targets, alerts and intervals apply now; the sources or "
                        "statistics changed too, which takes a restart of plateau watch";
@@ -279,7 +330,7 @@ std::vector<std::string> RunMonitor::Folders() const {
 SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events) {
   const StatisticConfig& c = *t.config;
   EvaluationOptions options = config_.evaluation;
-  if (c.target) options.confidence = c.target->confidence;
+  options.confidence = t.confidence;
   const Statistic* statistic = t.tail->Find(c.request.name);
   const std::string problem = t.tail->ProblemOf(c.request.name);
   StatisticEstimate e;
@@ -334,8 +385,92 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   row.warmup_end_time = e.warmup_end_time;
   row.samples_used = static_cast<std::int64_t>(e.samples_used);
   row.last_time = e.last_time;
-  row.json = StatisticJson(e, c, t.tracker, state, reason);
+  row.remaining_time = !c.target        ? kNaN
+                       : t.tracker.met() ? 0.0
+                                         : RemainingTimeToTarget(e, row.target_half_width);
+  const double rate = rate_.PerHour();
+  row.remaining_wall = rate > 0.0 ? row.remaining_time / rate * 3600.0 : kNaN;
+  if (c.reference) {
+    row.reference_verdict = std::string(VerdictName(CompareWithReference(e, *c.reference).verdict));
+  }
+  row.json = StatisticJson(e, c, t.tracker, row, wall_time);
   return row;
+}
+
+SnapshotRow RunMonitor::GroupSnapshot(const GroupConfig& g, const std::vector<SnapshotRow>& rows,
+                                      double wall_time) const {
+  SnapshotRow row;
+  row.statistic = g.name;
+  row.target_kind = "group";
+  row.value = row.half_width = row.relative_half_width = kNaN;
+  row.integrated_time = row.effective_samples = row.warmup_end_time = row.last_time = kNaN;
+  row.target_value = row.target_half_width = row.met_at_time = row.met_at_wall = kNaN;
+  row.confidence = g.confidence;
+  int met = 0;
+  double remaining = 0.0;
+  const SnapshotRow* first_unmet = nullptr;
+  for (const std::string& member : g.members) {
+    for (const SnapshotRow& r : rows) {
+      if (r.statistic != member) continue;
+      if (r.state == "met") {
+        ++met;
+      } else if (!first_unmet) {
+        first_unmet = &r;
+      }
+      remaining = std::isnan(r.remaining_time) ? kNaN : std::max(remaining, r.remaining_time);
+    }
+  }
+  const int size = static_cast<int>(g.members.size());
+  row.state = met == size ? "met" : "converging";
+  row.state_reason = std::to_string(met) + " of " + std::to_string(size) + " members met" +
+                     (first_unmet ? "; " + first_unmet->statistic + " is " + first_unmet->state +
+                                        ": " + first_unmet->state_reason
+                                  : "");
+  row.remaining_time = remaining;
+  const double rate = rate_.PerHour();
+  row.remaining_wall = rate > 0.0 ? remaining / rate * 3600.0 : kNaN;
+  JsonWriter json;
+  json.BeginObject();
+  json.Field("name", g.name);
+  json.Field("group", true);
+  json.Key("members");
+  json.BeginArray();
+  for (const std::string& m : g.members) json.String(m);
+  json.EndArray();
+  json.Field("members_met", met);
+  json.Field("state", row.state);
+  json.Field("state_reason", row.state_reason);
+  json.Field("required", g.required);
+  json.Field("bonferroni", g.bonferroni);
+  json.Field("confidence", g.confidence);
+  json.Field("member_confidence",
+             g.bonferroni ? 1.0 - (1.0 - g.confidence) / std::max(size, 1) : kNaN);
+  WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
+  json.EndObject();
+  row.json = json.text();
+  return row;
+}
+
+bool RunMonitor::RunMet(const std::vector<SnapshotRow>& rows) const {
+  const auto in_a_group = [&](const std::string& name) {
+    for (const GroupConfig& g : config_.groups) {
+      if (std::find(g.members.begin(), g.members.end(), name) != g.members.end()) return true;
+    }
+    return false;
+  };
+  int targets = 0;
+  for (const SnapshotRow& r : rows) {
+    const bool group = r.target_kind == "group";
+    if (r.target_kind.empty() || (!group && in_a_group(r.statistic))) continue;
+    if (group) {
+      const auto g = std::find_if(config_.groups.begin(), config_.groups.end(),
+                                  [&](const GroupConfig& x) { return x.name == r.statistic; });
+      if (g == config_.groups.end() || !g->required) continue;
+    }
+    ++targets;
+    if (r.state != "met") return false;
+  }
+  return targets > 0;
 }
 
 Status RunMonitor::Evaluate(double wall_time) {
@@ -357,14 +492,27 @@ Status RunMonitor::Evaluate(double wall_time) {
   WatchInput(record, wall_time, events);
   int targets = 0;
   int met = 0;
+  record.remaining_time = 0.0;
   for (Tracked& t : tracked_) {
     record.snapshots.push_back(Snapshot(t, wall_time, events));
     if (t.config->target) {
       ++targets;
       met += t.tracker.met();
+      const double left = record.snapshots.back().remaining_time;
+      record.remaining_time = std::isnan(left) ? kNaN : std::max(record.remaining_time, left);
     }
   }
-  const bool run_met = targets > 0 && met == targets;
+  if (targets == 0) record.remaining_time = kNaN;
+  const double rate = rate_.PerHour();
+  record.remaining_wall = rate > 0.0 ? record.remaining_time / rate * 3600.0 : kNaN;
+  const std::size_t statistic_rows = record.snapshots.size();
+  for (const GroupConfig& g : config_.groups) {
+    record.snapshots.push_back(GroupSnapshot(
+        g,
+        std::vector<SnapshotRow>(record.snapshots.begin(), record.snapshots.begin() + statistic_rows),
+        wall_time));
+  }
+  const bool run_met = RunMet(record.snapshots);
   if (run_met != run_met_) {
     events.push_back(MakeEvent(run_met ? "run_met" : "run_lost", "",
                                run_met ? "every target of run " + config_.run_name +
@@ -374,6 +522,7 @@ Status RunMonitor::Evaluate(double wall_time) {
     run_met_ = run_met;
   }
   record.run_met = run_met_;
+  for (EventRow& e : events) e.remaining_time = record.remaining_time;
   pending_events_.insert(pending_events_.end(), events.begin(), events.end());
   record.events = pending_events_;
   for (const auto& tail : tails_) tail->Checkpoint(record);

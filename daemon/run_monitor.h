@@ -69,9 +69,17 @@ class RunMonitor {
     StatisticConfig* config;  // into config_.statistics, which never changes size
     SourceTail* tail;
     ConvergenceTracker tracker;
+    double confidence = 0.95;  // the target's, or stricter inside a Bonferroni group
   };
   SourceTail* TailOf(const std::string& source);
   SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events);
+  SnapshotRow GroupSnapshot(const GroupConfig& group, const std::vector<SnapshotRow>& rows,
+                            double wall_time) const;
+  // Per statistic, the confidence it is judged at (Bonferroni groups make it stricter).
+  void AssignConfidences();
+  // Whether the run meets every target it must: the required groups and every statistic with a
+  // target outside any group.
+  bool RunMet(const std::vector<SnapshotRow>& rows) const;
   // An event with the details alerts need and the channels that take its kind.
   EventRow MakeEvent(const std::string& kind, const std::string& statistic, std::string message,
                      double simulated_time, double wall_time) const;

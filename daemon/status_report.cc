@@ -63,11 +63,26 @@ struct Tally {
   const SnapshotRow* column_missing = nullptr;
 };
 
+bool IsGroup(const SnapshotRow& s) { return s.target_kind == "group"; }
+
+// "300 time units (about 2.1 h, at 2026-12-02 10:15 UTC)", or "unknown".
+std::string Prediction(double simulated, double wall_seconds, double now) {
+  if (std::isnan(simulated)) return "unknown";
+  if (simulated == 0.0) return "reached";
+  char figure[32];
+  std::snprintf(figure, sizeof figure, "%.3g", simulated);
+  std::string text = std::string(figure) + " time units";
+  if (!std::isnan(wall_seconds)) {
+    text += " (about " + Ago(wall_seconds) + ", at " + UtcTime(now + wall_seconds) + ")";
+  }
+  return text;
+}
+
 Tally Count(const LatestView& v) {
   Tally t;
   for (const SnapshotRow& s : v.statistics) {
     if (s.state == "column_missing" && !t.column_missing) t.column_missing = &s;
-    if (s.target_kind.empty()) continue;
+    if (s.target_kind.empty() || IsGroup(s)) continue;
     ++t.targets;
     if (s.state == "met") {
       ++t.met;
@@ -105,8 +120,11 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                    {"n_eff", A::kRight},
                    {"warm-up ends", A::kRight},
                    {"state", A::kLeft},
-                   {"met at", A::kRight}});
+                   {"met at", A::kRight},
+                   {"time to target", A::kRight},
+                   {"vs reference", A::kLeft}});
   for (const SnapshotRow& s : v.statistics) {
+    if (IsGroup(s)) continue;
     char tau[32], neff[32];
     std::snprintf(tau, sizeof tau, "%.3g", s.integrated_time);
     std::snprintf(neff, sizeof neff, "%.0f", s.effective_samples);
@@ -114,9 +132,18 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
                   FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
                   estimated ? tau : "-", estimated ? neff : "-", FormatValue(s.warmup_end_time),
-                  StateWords(s.state), FormatValue(s.met_at_time)});
+                  StateWords(s.state), FormatValue(s.met_at_time),
+                  s.state == "met" || s.target_kind.empty()
+                      ? "-"
+                      : Prediction(s.remaining_time, s.remaining_wall, c.now),
+                  s.reference_verdict.empty() ? "-"
+                  : s.reference_verdict == "bias" ? "BIAS"
+                                                  : s.reference_verdict});
   }
   out += table.Render() + "\n";
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsGroup(s)) out += "group " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
+  }
   const Tally t = Count(v);
   if (t.targets == 0) {
     out += "no statistic has a target: nothing to stop on\n";
@@ -124,11 +151,13 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     out += "every target is met (" + std::to_string(t.met) + " of " + std::to_string(t.targets) +
            "): stop the solver\n";
   } else {
-    out += std::to_string(t.met) + " of " + std::to_string(t.targets) + " targets met: continue\n";
+    out += std::to_string(t.met) + " of " + std::to_string(t.targets) +
+           " targets met: continue; every target is expected to be met after " +
+           Prediction(v.remaining_time, v.remaining_wall, c.now) + "\n";
   }
   bool header = false;
   for (const SnapshotRow& s : v.statistics) {
-    if (s.state == "met" || s.state == "monitored" || s.state_reason.empty()) continue;
+    if (IsGroup(s) || s.state == "met" || s.state == "monitored" || s.state_reason.empty()) continue;
     if (!header) out += "\nnotes:\n";
     header = true;
     out += "  " + s.statistic + ": " + StateWords(s.state) + ": " + s.state_reason + "\n";
@@ -162,6 +191,16 @@ std::string StatusJson(const LatestView& v, const StatusContext& c) {
   json.Field("run_met", v.run_met);
   json.Field("targets", t.targets);
   json.Field("targets_met", t.met);
+  json.Key("time_to_target");
+  if (std::isnan(v.remaining_time)) {
+    json.Null();
+  } else {
+    json.BeginObject();
+    json.Field("simulated", v.remaining_time);
+    json.Field("wall_seconds", v.remaining_wall);
+    json.Field("expected_at", v.wall_time + v.remaining_wall);
+    json.EndObject();
+  }
   json.Key("statistics");
   json.BeginArray();
   for (const SnapshotRow& s : v.statistics) json.Raw(s.json);
@@ -194,6 +233,12 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
   v.last_sample_wall_time = NumberOr(d.Find("last_sample_read_at"));
   const JsonValue* met = d.Find("run_met");
   v.run_met = met != nullptr && met->boolean();
+  v.remaining_time = kNaN;
+  v.remaining_wall = kNaN;
+  if (const JsonValue* eta = d.Find("time_to_target"); eta && eta->is_object()) {
+    v.remaining_time = NumberOr(eta->Find("simulated"));
+    v.remaining_wall = NumberOr(eta->Find("wall_seconds"));
+  }
   c->store_path = TextOr(d.Find("store"));
   c->answered_by = TextOr(d.Find("answered_by"));
   if (const JsonValue* daemon = d.Find("daemon")) {
@@ -205,6 +250,7 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
   for (const JsonValue& s : statistics->array()) {
     SnapshotRow row;
     row.statistic = TextOr(s.Find("name"));
+    if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
     row.state = TextOr(s.Find("state"));
     row.state_reason = TextOr(s.Find("state_reason"));
     row.value = NumberOr(s.Find("mean"));
@@ -216,6 +262,15 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
     row.samples_used = static_cast<std::int64_t>(NumberOr(s.Find("samples_used")));
     row.last_time = NumberOr(s.Find("last_time"));
     row.confidence = NumberOr(s.Find("confidence"));
+    row.remaining_time = kNaN;
+    row.remaining_wall = kNaN;
+    if (const JsonValue* eta = s.Find("time_to_target"); eta && eta->is_object()) {
+      row.remaining_time = NumberOr(eta->Find("simulated"));
+      row.remaining_wall = NumberOr(eta->Find("wall_seconds"));
+    }
+    if (const JsonValue* reference = s.Find("reference"); reference && reference->is_object()) {
+      row.reference_verdict = TextOr(reference->Find("verdict"));
+    }
     if (const JsonValue* target = s.Find("target"); target && target->is_object()) {
       row.target_kind = TextOr(target->Find("kind"));
       row.target_value = NumberOr(target->Find("value"));

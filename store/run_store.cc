@@ -60,6 +60,12 @@ ALTER TABLE events ADD COLUMN confidence REAL;
 ALTER TABLE events ADD COLUMN target TEXT NOT NULL DEFAULT '';
 ALTER TABLE events ADD COLUMN progress_rate REAL;
 ALTER TABLE events ADD COLUMN elapsed_wall REAL;
+ALTER TABLE events ADD COLUMN remaining_time REAL;
+ALTER TABLE snapshots ADD COLUMN remaining_time REAL;
+ALTER TABLE snapshots ADD COLUMN remaining_wall REAL;
+ALTER TABLE snapshots ADD COLUMN reference_verdict TEXT NOT NULL DEFAULT '';
+ALTER TABLE cycles ADD COLUMN remaining_time REAL;
+ALTER TABLE cycles ADD COLUMN remaining_wall REAL;
 CREATE TABLE deliveries(
   event_id INTEGER NOT NULL REFERENCES events(id),
   channel TEXT NOT NULL,
@@ -197,7 +203,8 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     Status s;
     auto cycle = db.Prepare(
         "INSERT OR REPLACE INTO cycles(cycle, wall_time, last_sample_time, "
-        "last_sample_wall_time, run_met) VALUES (?1, ?2, ?3, ?4, ?5)",
+        "last_sample_wall_time, run_met, remaining_time, remaining_wall) "
+        "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
         &s);
     if (!cycle) return s;
     cycle->Bind(1, r.cycle);
@@ -205,12 +212,14 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     cycle->Bind(3, r.last_sample_time);
     cycle->Bind(4, r.last_sample_wall_time);
     cycle->Bind(5, static_cast<std::int64_t>(r.run_met));
+    cycle->Bind(6, r.remaining_time);
+    cycle->Bind(7, r.remaining_wall);
     if (!(s = cycle->Run()).ok()) return s;
 
     if (!(s = db.Execute("DELETE FROM latest")).ok()) return s;
     auto snapshot = db.Prepare(
         "INSERT OR REPLACE INTO snapshots VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
-        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)",
+        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22)",
         &s);
     auto latest = db.Prepare("INSERT INTO latest VALUES (?1, ?2)", &s);
     if (!snapshot || !latest) return s;
@@ -237,6 +246,9 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       snapshot->Bind(17, row.target_half_width);
       snapshot->Bind(18, row.met_at_time);
       snapshot->Bind(19, row.met_at_wall);
+      snapshot->Bind(20, row.remaining_time);
+      snapshot->Bind(21, row.remaining_wall);
+      snapshot->Bind(22, row.reference_verdict);
       if (!(s = snapshot->Run()).ok()) return s;
       latest->Reset();
       latest->Bind(1, position);
@@ -246,8 +258,8 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
 
     auto event = db.Prepare(
         "INSERT INTO events(cycle, wall_time, simulated_time, statistic, kind, message, value, "
-        "half_width, confidence, target, progress_rate, elapsed_wall) "
-        "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
+        "half_width, confidence, target, progress_rate, elapsed_wall, remaining_time) "
+        "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)",
         &s);
     auto delivery = db.Prepare(
         "INSERT INTO deliveries VALUES (?1, ?2, 'pending', 0, ?3, NULL, '')", &s);
@@ -266,6 +278,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       event->Bind(10, e.target);
       event->Bind(11, e.progress_rate);
       event->Bind(12, e.elapsed_wall);
+      event->Bind(13, e.remaining_time);
       if (!(s = event->Run()).ok()) return s;
       const std::int64_t id = db.LastInsertId();
       for (const std::string& channel : e.channels) {
@@ -382,8 +395,8 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
   [&] {
     auto cycle = connection_->Prepare(
         "SELECT cycle, wall_time, last_sample_time, last_sample_wall_time, run_met, "
-        "(SELECT value FROM meta WHERE key = 'run_name') FROM cycles "
-        "ORDER BY cycle DESC LIMIT 1",
+        "(SELECT value FROM meta WHERE key = 'run_name'), remaining_time, remaining_wall "
+        "FROM cycles ORDER BY cycle DESC LIMIT 1",
         status);
     if (!cycle) return;
     if (!cycle->Step()) {
@@ -397,11 +410,14 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
     v.last_sample_wall_time = cycle->ColumnDouble(3);
     v.run_met = cycle->ColumnInt(4) != 0;
     v.run_name = cycle->ColumnText(5);
+    v.remaining_time = cycle->ColumnDouble(6);
+    v.remaining_wall = cycle->ColumnDouble(7);
     auto rows = connection_->Prepare(
         "SELECT s.statistic, s.state, s.state_reason, s.value, s.half_width, "
         "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
         "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
-        "s.target_half_width, s.met_at_time, s.met_at_wall, l.json FROM snapshots s "
+        "s.target_half_width, s.met_at_time, s.met_at_wall, s.remaining_time, s.remaining_wall, "
+        "s.reference_verdict, l.json FROM snapshots s "
         "JOIN latest l ON l.position = s.position WHERE s.cycle = ?1 ORDER BY s.position",
         status);
     if (!rows) return;
@@ -425,7 +441,10 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       row.target_half_width = rows->ColumnDouble(14);
       row.met_at_time = rows->ColumnDouble(15);
       row.met_at_wall = rows->ColumnDouble(16);
-      row.json = rows->ColumnText(17);
+      row.remaining_time = rows->ColumnDouble(17);
+      row.remaining_wall = rows->ColumnDouble(18);
+      row.reference_verdict = rows->ColumnText(19);
+      row.json = rows->ColumnText(20);
       v.statistics.push_back(std::move(row));
     }
     if (!(*status = rows->status()).ok()) return;
@@ -440,7 +459,7 @@ namespace {
 
 constexpr const char* kEventColumns =
     "e.id, e.cycle, e.wall_time, e.simulated_time, e.statistic, e.kind, e.message, e.value, "
-    "e.half_width, e.confidence, e.target, e.progress_rate, e.elapsed_wall";
+    "e.half_width, e.confidence, e.target, e.progress_rate, e.elapsed_wall, e.remaining_time";
 
 // Reads the kEventColumns of a row, starting at column `first`.
 EventRow EventAt(const SqliteStatement& q, int first) {
@@ -458,6 +477,7 @@ EventRow EventAt(const SqliteStatement& q, int first) {
   e.target = q.ColumnText(first + 10);
   e.progress_rate = q.ColumnDouble(first + 11);
   e.elapsed_wall = q.ColumnDouble(first + 12);
+  e.remaining_time = q.ColumnDouble(first + 13);
   return e;
 }
 

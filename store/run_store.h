@@ -54,6 +54,9 @@ struct SnapshotRow {
   double target_half_width = 0.0;
   double met_at_time = 0.0;  // NaN while not met
   double met_at_wall = 0.0;
+  double remaining_time = 0.0;  // simulated time still needed for the target; NaN: unknown
+  double remaining_wall = 0.0;  // the same in wall-clock seconds at the observed rate
+  std::string reference_verdict;  // consistent, bias, undetermined, or empty without a reference
   std::string json;  // the full status object; kept for the newest cycle only
 };
 
@@ -72,6 +75,7 @@ struct EventRow {
   std::string target;          // "1 %", "0.002"
   double progress_rate = 0.0;  // simulated time per wall-clock hour, recently
   double elapsed_wall = 0.0;   // seconds since the run's first sample was read
+  double remaining_time = 0.0;  // the run's simulated time still needed; NaN: unknown
   std::vector<std::string> channels;  // deliveries to create with the event (write only)
 };
 
@@ -88,6 +92,8 @@ struct CycleRecord {
   double last_sample_time = 0.0;       // NaN before any sample
   double last_sample_wall_time = 0.0;  // when the newest sample was read
   bool run_met = false;
+  double remaining_time = 0.0;  // the run's: the largest over unmet targets; NaN: unknown
+  double remaining_wall = 0.0;
   std::string fingerprint;  // identity of what the checkpoint's estimator state means
   std::vector<SnapshotRow> snapshots;
   std::vector<EventRow> events;
@@ -103,7 +109,9 @@ struct LatestView {
   double last_sample_time = 0.0;
   double last_sample_wall_time = 0.0;
   bool run_met = false;
-  std::vector<SnapshotRow> statistics;  // in configuration order, with json
+  double remaining_time = 0.0;
+  double remaining_wall = 0.0;
+  std::vector<SnapshotRow> statistics;  // in configuration order (groups last), with json
   std::vector<FileProgress> files;
 };
 

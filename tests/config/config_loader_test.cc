@@ -60,7 +60,8 @@ TEST(ConfigLoader, UnknownKeyIsAnErrorAtItsLineAndColumn) {
                 "/runs/ch420/run.yaml:2:1: unknown key 'evaluate_evry' in the run settings; "
                 "expected one of run, store, evaluate_every, poll_every, confidence, batches, "
                 "warmup, confirmations, minimum_effective_samples, drift_p_value, blocks, "
-                "planned_end_time, cores, socket, metrics, alerts, sources or statistics"});
+                "planned_end_time, cores, socket, metrics, alerts, sources, statistics or "
+                "groups"});
 }
 
 TEST(ConfigLoader, TypoInsideAStatisticPointsAtTheKey) {
@@ -138,6 +139,22 @@ TEST(ConfigLoader, AlertsAreReadAndThePasswordNeverSitsInTheConfig) {
   ASSERT_EQ(e.size(), 2u);
   EXPECT_NE(e[0].find("event 'converged' is not known"), std::string::npos);
   EXPECT_NE(e[1].find("the password never goes in the config itself"), std::string::npos);
+}
+
+TEST(ConfigLoader, GroupsNameTheirMembersWhichNeedTargets) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(std::string(kValid) +
+                                    "groups:\n  - name: wall\n    members: [tau_lower, \""
+                                    "cov(u,v)\"]\n    bonferroni: true\n",
+                                "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  EXPECT_TRUE(c->groups.at(0).bonferroni);
+  EXPECT_EQ(c->groups.at(0).confidence, 0.95);
+  const auto e = Errors(std::string(kValid) + "  - kind: rms\n    columns: [u]\n"
+                                              "groups:\n  - name: g\n    members: [tau, rms(u)]\n");
+  ASSERT_EQ(e.size(), 2u);
+  EXPECT_NE(e[0].find("names statistic 'tau', which is not defined"), std::string::npos);
+  EXPECT_NE(e[1].find("member 'rms(u)' has no target"), std::string::npos);
 }
 
 TEST(ConfigLoader, ShippedExampleIsValid) {

@@ -214,3 +214,38 @@ TEST_F(WatchIntegration, KillNineAtRandomPointsEndsWithTheUninterruptedNumbers) 
 
 }  // namespace
 }  // namespace plateau
+
+namespace plateau {
+namespace {
+
+TEST_F(WatchIntegration, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGetAVerdict) {
+  // x has mean 10 by construction: a reference of 10 is consistent, one of 10.5 is a bias. The
+  // group's members are judged at 1 - 0.05 / 2 = 97.5 %.
+  WriteConfig("{relative: 0.01}\n    reference: 10.0\n    name: x",
+              "  - kind: mean\n    columns: [x]\n    name: x_shifted_reference\n"
+              "    target: {relative: 0.01}\n    reference: 10.5\n"
+              "groups:\n  - name: both\n    members: [x, x_shifted_reference]\n"
+              "    bonferroni: true\n");
+  const ProbeRows rows(16000);
+  Append("run1/probe.dat", "# time x y\n");
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  for (std::size_t from = 0; from < rows.size(); from += 2000) {
+    Append("run1/probe.dat", rows.Rows(from, from + 2000));
+    WaitFor([&] { return Samples() == static_cast<std::int64_t>(from + 2000); }, 10);
+  }
+  ASSERT_TRUE(WaitFor([&] { return Plateau({"check", "--stat", "both", Path("run.yaml")}).exit_code == 0; },
+                      10))
+      << Plateau({"status", Path("run.yaml")}).out;
+  const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
+  EXPECT_NE(json.out.find("\"member_confidence\":0.975"), std::string::npos) << json.out;
+  EXPECT_NE(json.out.find("\"confidence\":0.975"), std::string::npos);
+  EXPECT_NE(json.out.find("\"verdict\":\"consistent\""), std::string::npos);
+  EXPECT_NE(json.out.find("\"verdict\":\"bias\""), std::string::npos);
+  EXPECT_NE(json.out.find("\"time_to_target\":{\"simulated\":0"), std::string::npos);
+  const testing::CommandResult table = Plateau({"status", Path("run.yaml")});
+  EXPECT_NE(table.out.find("group both: met, 2 of 2 members met"), std::string::npos) << table.out;
+  EXPECT_NE(table.out.find("BIAS"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace plateau
