@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <charconv>
+#include <map>
 
 namespace plateau {
 namespace {
@@ -38,32 +39,81 @@ std::optional<SourceStatistics> SourceStatistics::Make(
     return std::nullopt;
   }
   SourceStatistics source(std::move(columns), time_index);
+  // The order each shared history must keep: the highest any of its statistics needs.
+  std::map<std::string, int> shared_order;
+  for (const StatisticRequest& r : requests) {
+    if (r.shared_history.empty()) continue;
+    const int order = r.kind == StatisticKind::kMean ? 2 : r.kind == StatisticKind::kThirdMoment ? 6 : 4;
+    shared_order[r.shared_history] = std::max(shared_order[r.shared_history], order);
+  }
   for (std::size_t r = 0; r < requests.size(); ++r) {
     const StatisticRequest& request = requests[r];
-    std::vector<int> positions;
-    std::string problem;
-    for (const std::string& column : request.columns) {
-      const int position = ResolveColumn(source.columns_, column);
-      if (position < 0 && problem.empty()) {
-        problem = "no column '" + column + "' (columns: " + KnownColumns(source.columns_) + ")";
+    const auto resolve = [&](const std::vector<std::string>& names, std::vector<int>* positions) {
+      for (const std::string& column : names) {
+        const int position = ResolveColumn(source.columns_, column);
+        if (position < 0) {
+          return "no column '" + column + "' (columns: " + KnownColumns(source.columns_) + ")";
+        }
+        positions->push_back(position);
       }
-      positions.push_back(position);
-    }
-    std::optional<StatisticFormula> formula;
-    if (problem.empty()) formula = StatisticFormula::Make(request.kind, positions, &problem);
-    if (!formula) {
-      source.problems_.push_back({r, problem});
-      continue;
-    }
+      return std::string();
+    };
+    std::vector<int> positions;
+    std::string problem = resolve(request.columns, &positions);
     std::vector<std::string> names;
     for (int p : positions) names.push_back(source.columns_[p]);
     const std::string name =
         request.name.empty() ? DefaultStatisticName(request.kind, names) : request.name;
-    source.statistics_.emplace_back(name, *formula, capacity);
+    std::optional<StatisticFormula> formula;
+    Feed* feed = nullptr;
+    if (problem.empty() && request.shared_history.empty()) {
+      formula = StatisticFormula::Make(request.kind, positions, &problem);
+      // Keyed by position too: `analyze` may ask for the same statistic twice.
+      if (formula) {
+        feed = source.FeedFor("statistic:" + name + "#" + std::to_string(r), formula->signals(),
+                              formula->history_order(), capacity, &problem);
+      }
+    } else if (problem.empty()) {
+      std::vector<int> shared;
+      problem = resolve(request.shared_columns, &shared);
+      if (problem.empty()) {
+        feed = source.FeedFor("shared:" + request.shared_history, shared,
+                              shared_order[request.shared_history], capacity, &problem);
+      }
+      if (feed) formula = StatisticFormula::Make(request.kind, positions, &problem, &feed->columns);
+    }
+    if (!formula || !feed) {
+      source.problems_.push_back({r, problem});
+      continue;
+    }
+    source.statistics_.emplace_back(name, *formula, feed->history);
     source.columns_of_.push_back(std::move(names));
     source.request_of_.push_back(r);
   }
   return source;
+}
+
+SourceStatistics::Feed* SourceStatistics::FeedFor(const std::string& key,
+                                                  const std::vector<int>& columns, int order,
+                                                  std::size_t capacity, std::string* error) {
+  for (Feed& f : feeds_) {
+    if (f.key == key) return &f;
+  }
+  if (columns.empty() || columns.size() > MomentLayout::kMaxSignals) {
+    *error = "a shared history holds one to three columns, not " + std::to_string(columns.size());
+    return nullptr;
+  }
+  feeds_.push_back({key,
+                    std::make_shared<BlockHistory>(
+                        MomentLayout(static_cast<int>(columns.size()), order), capacity),
+                    columns});
+  return &feeds_.back();
+}
+
+std::vector<SourceStatistics::KeyedHistory> SourceStatistics::histories() {
+  std::vector<KeyedHistory> out;
+  for (Feed& f : feeds_) out.push_back({f.key, f.history.get()});
+  return out;
 }
 
 std::vector<StatisticRequest> SourceStatistics::MeansOfEveryColumn(
@@ -71,7 +121,7 @@ std::vector<StatisticRequest> SourceStatistics::MeansOfEveryColumn(
   const int time_index = time_column.empty() ? 0 : ResolveColumn(columns, time_column);
   std::vector<StatisticRequest> requests;
   for (int c = 0; c < static_cast<int>(columns.size()); ++c) {
-    if (c != time_index) requests.push_back({StatisticKind::kMean, {columns[c]}, ""});
+    if (c != time_index) requests.push_back(MakeRequest(StatisticKind::kMean, {columns[c]}));
   }
   return requests;
 }
@@ -79,7 +129,11 @@ std::vector<StatisticRequest> SourceStatistics::MeansOfEveryColumn(
 bool SourceStatistics::Add(const double* row) {
   const double time = row[time_index_];
   if (!gate_.Admit(time)) return false;
-  for (Statistic& statistic : statistics_) statistic.Add(time, row);
+  double values[MomentLayout::kMaxSignals];
+  for (Feed& f : feeds_) {
+    for (std::size_t i = 0; i < f.columns.size(); ++i) values[i] = row[f.columns[i]];
+    f.history->Add(time, values);
+  }
   return true;
 }
 

@@ -4,6 +4,7 @@
 #ifndef PLATEAU_CORE_SOURCE_STATISTICS_H_
 #define PLATEAU_CORE_SOURCE_STATISTICS_H_
 
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -41,6 +42,14 @@ class SourceStatistics {
   // (restart overlap): the row is then counted in gate() and used by no statistic.
   bool Add(const double* row);
 
+  // Every history with a stable key, for checkpoints: "statistic:NAME" for a statistic's own,
+  // "shared:KEY" for a shared one.
+  struct KeyedHistory {
+    std::string key;
+    BlockHistory* history;
+  };
+  std::vector<KeyedHistory> histories();
+
   const std::vector<std::string>& columns() const { return columns_; }
   int time_index() const { return time_index_; }
   const TimeOrderGate& gate() const { return gate_; }
@@ -53,6 +62,17 @@ class SourceStatistics {
  private:
   SourceStatistics(std::vector<std::string> columns, int time_index);
 
+  // A history and the row positions of its signals: the rows are read into it once each.
+  struct Feed {
+    std::string key;
+    std::shared_ptr<BlockHistory> history;
+    std::vector<int> columns;
+  };
+  // The feed for `key`, made with `columns` and `order` the first time; nullptr with *error when
+  // a shared history's columns are unknown or more than three.
+  Feed* FeedFor(const std::string& key, const std::vector<int>& columns, int order,
+                std::size_t capacity, std::string* error);
+
   std::vector<std::string> columns_;
   int time_index_;
   TimeOrderGate gate_;
@@ -60,6 +80,7 @@ class SourceStatistics {
   std::vector<std::vector<std::string>> columns_of_;
   std::vector<std::size_t> request_of_;
   std::vector<Problem> problems_;
+  std::vector<Feed> feeds_;
 };
 
 // Position of `column` (a name, else a 1-based number) in `columns`; -1 when neither matches.

@@ -44,31 +44,36 @@ std::vector<double> Grouped(const std::vector<double>& values, std::size_t group
 Statistic::Statistic(std::string name, StatisticFormula formula, std::size_t capacity)
     : name_(std::move(name)),
       formula_(std::move(formula)),
-      history_(MomentLayout(static_cast<int>(formula_.signals().size()), formula_.history_order()),
-               capacity) {}
+      history_(std::make_shared<BlockHistory>(
+          MomentLayout(static_cast<int>(formula_.signals().size()), formula_.history_order()),
+          capacity)) {}
+
+Statistic::Statistic(std::string name, StatisticFormula formula,
+                     std::shared_ptr<BlockHistory> history)
+    : name_(std::move(name)), formula_(std::move(formula)), history_(std::move(history)) {}
 
 void Statistic::Add(double time, const double* row) {
   std::array<double, MomentLayout::kMaxSignals> values{};
   const std::vector<int>& signals = formula_.signals();
   for (std::size_t i = 0; i < signals.size(); ++i) values[i] = row[signals[i]];
-  history_.Add(time, values.data());
+  history_->Add(time, values.data());
 }
 
 std::vector<double> Statistic::BlockSeries(const BlockMeasure& measure) const {
-  std::vector<double> series(history_.block_count());
-  for (std::size_t b = 0; b < series.size(); ++b) series[b] = measure(history_.block(b));
+  std::vector<double> series(history_->block_count());
+  for (std::size_t b = 0; b < series.size(); ++b) series[b] = measure(history_->block(b));
   return series;
 }
 
 std::size_t Statistic::MserGroup() const {
-  const std::uint64_t length = history_.block_length();
+  const std::uint64_t length = history_->block_length();
   return std::max(static_cast<std::size_t>((kMserBatchSamples + length - 1) / length),
-                  (history_.block_count() + kMserBatches - 1) / kMserBatches);
+                  (history_->block_count() + kMserBatches - 1) / kMserBatches);
 }
 
 int Statistic::MserWarmupBlocks() const {
   const std::size_t group = MserGroup();
-  const MomentLayout& layout = history_.layout();
+  const MomentLayout& layout = history_->layout();
   // MSER searches the series the estimators average: the linearised block values about the
   // all-data means (for a mean, the block means). The transient may also show in a signal's mean
   // before it shows in a higher moment, so for other kinds each signal's block means are searched
@@ -78,7 +83,7 @@ int Statistic::MserWarmupBlocks() const {
       LinearisedSeries(0, global, formula_.Linearisation(layout, global.data()));
   std::size_t cut = group * MserTruncation(Grouped(linearised, group));
   if (formula_.kind() != StatisticKind::kMean) {
-    for (int i = 0; i < layout.signals(); ++i) {
+    for (int i : formula_.used_signals()) {
       const std::vector<double> means =
           BlockSeries([&](const double* b) { return layout.Mean(b, i); });
       cut = std::max(cut, group * MserTruncation(Grouped(means, group)));
@@ -92,10 +97,10 @@ int Statistic::WarmupBlocks(const EvaluationOptions& options) const {
     case WarmupPolicy::kNone:
       return 0;
     case WarmupPolicy::kFixedTime: {
-      const MomentLayout& layout = history_.layout();
+      const MomentLayout& layout = history_->layout();
       int cut = 0;
-      const int count = static_cast<int>(history_.block_count());
-      while (cut < count && layout.FirstTime(history_.block(cut)) < options.warmup_time) ++cut;
+      const int count = static_cast<int>(history_->block_count());
+      while (cut < count && layout.FirstTime(history_->block(cut)) < options.warmup_time) ++cut;
       return cut;
     }
     case WarmupPolicy::kAuto:
@@ -105,19 +110,19 @@ int Statistic::WarmupBlocks(const EvaluationOptions& options) const {
 }
 
 std::vector<double> Statistic::PostWarmupSummary(int cut) const {
-  const MomentLayout& layout = history_.layout();
+  const MomentLayout& layout = history_->layout();
   std::vector<double> global(layout.stride());
   layout.Clear(global.data());
-  for (std::size_t b = cut; b < history_.block_count(); ++b) {
-    layout.Merge(global.data(), history_.block(b), global.data());
+  for (std::size_t b = cut; b < history_->block_count(); ++b) {
+    layout.Merge(global.data(), history_->block(b), global.data());
   }
-  layout.Merge(global.data(), history_.open_block(), global.data());
+  layout.Merge(global.data(), history_->open_block(), global.data());
   return global;
 }
 
 std::vector<double> Statistic::LinearisedSeries(int cut, const std::vector<double>& global,
                                                 const std::vector<WeightedMoment>& terms) const {
-  const MomentLayout& layout = history_.layout();
+  const MomentLayout& layout = history_->layout();
   std::array<double, MomentLayout::kMaxSignals> centre{};
   for (int i = 0; i < layout.signals(); ++i) centre[i] = layout.Mean(global.data(), i);
   std::vector<double> global_moment;
@@ -125,11 +130,11 @@ std::vector<double> Statistic::LinearisedSeries(int cut, const std::vector<doubl
     global_moment.push_back(layout.CentralMoment(global.data(), t.alpha));
   }
   std::vector<double> series;
-  for (std::size_t b = cut; b < history_.block_count(); ++b) {
+  for (std::size_t b = cut; b < history_->block_count(); ++b) {
     double z = 0.0;
     for (std::size_t t = 0; t < terms.size(); ++t) {
       z += terms[t].weight *
-           (layout.MomentAbout(history_.block(b), terms[t].alpha, centre.data()) - global_moment[t]);
+           (layout.MomentAbout(history_->block(b), terms[t].alpha, centre.data()) - global_moment[t]);
     }
     series.push_back(z);
   }
@@ -140,7 +145,7 @@ double Statistic::LinearisedSampleVariance(const std::vector<double>& global,
                                            const std::vector<WeightedMoment>& terms) const {
   // Var z_t = sum_s sum_t w_s w_t (mu[a_s + a_t] - mu[a_s] mu[a_t]), exact from the stored moments
   // because the history keeps twice the statistic's order.
-  const MomentLayout& layout = history_.layout();
+  const MomentLayout& layout = history_->layout();
   double variance = 0.0;
   for (const WeightedMoment& s : terms) {
     for (const WeightedMoment& t : terms) {
@@ -157,7 +162,7 @@ double Statistic::LinearisedSampleVariance(const std::vector<double>& global,
 void Statistic::Estimate(const std::vector<double>& series, double sample_variance,
                          const EvaluationOptions& options, StatisticEstimate& e) const {
   const int blocks = static_cast<int>(series.size());
-  const double length = static_cast<double>(history_.block_length());
+  const double length = static_cast<double>(history_->block_length());
   const double closed_samples = blocks * length;
   const BatchMeansResult bm = NonOverlappingBatchMeans(series, options.batches);
   const BatchMeansResult obm = OverlappingBatchMeans(series, bm.batch_size);
@@ -215,16 +220,16 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
   e.name = name_;
   e.kind = formula_.kind();
   e.confidence = options.confidence;
-  e.samples_total = history_.sample_count();
-  e.block_length = history_.block_length();
+  e.samples_total = history_->sample_count();
+  e.block_length = history_->block_length();
   if (e.samples_total == 0) {
     e.state_reason = "no samples yet";
     return e;
   }
-  const MomentLayout& layout = history_.layout();
-  e.first_time = layout.FirstTime(history_.block_count() > 0 ? history_.block(0)
-                                                             : history_.open_block());
-  e.last_time = history_.last_time();
+  const MomentLayout& layout = history_->layout();
+  e.first_time = layout.FirstTime(history_->block_count() > 0 ? history_->block(0)
+                                                             : history_->open_block());
+  e.last_time = history_->last_time();
 
   const int cut = WarmupBlocks(options);
   if (options.warmup == WarmupPolicy::kAuto) e.warmup_batch_length = MserGroup() * e.block_length;
@@ -232,7 +237,7 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
   e.samples_used = static_cast<std::uint64_t>(layout.Count(global.data()));
   e.warmup_end_time = layout.FirstTime(global.data());
   e.value = formula_.Value(layout, global.data());
-  e.blocks_used = static_cast<int>(history_.block_count()) - cut;
+  e.blocks_used = static_cast<int>(history_->block_count()) - cut;
 
   const int blocks_needed = 2 * options.batches;
   if (e.samples_used < kMinimumSamples || e.blocks_used < blocks_needed) {

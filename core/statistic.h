@@ -5,6 +5,7 @@
 #define PLATEAU_CORE_STATISTIC_H_
 
 #include <functional>
+#include <memory>
 #include <string>
 #include <vector>
 
@@ -20,15 +21,24 @@ class Statistic {
   // Fewer samples than this after the warm-up give a value but no interval.
   static constexpr double kMinimumSamples = 50.0;
 
+  // A statistic with a history of its own.
   Statistic(std::string name, StatisticFormula formula,
             std::size_t capacity = BlockHistory::kDefaultCapacity);
+  // A statistic on a history that others share (the points of a probe line): whoever owns the
+  // history feeds it, once per sample; its layout must hold the formula's signals and order.
+  Statistic(std::string name, StatisticFormula formula, std::shared_ptr<BlockHistory> history);
+  Statistic(Statistic&&) = default;
+  Statistic& operator=(Statistic&&) = default;
+  Statistic(const Statistic&) = delete;  // copies would alias one history
+  Statistic& operator=(const Statistic&) = delete;
 
   const std::string& name() const { return name_; }
   const StatisticFormula& formula() const { return formula_; }
-  const BlockHistory& history() const { return history_; }
-  BlockHistory& history() { return history_; }
+  const BlockHistory& history() const { return *history_; }
+  BlockHistory& history() { return *history_; }
 
-  // Adds the sample of one data row; `row` holds every column, the formula picks its own.
+  // Adds the sample of one data row to the statistic's history; `row` holds every column, the
+  // formula picks its signals. Only for a history of its own: a shared one is fed by its owner.
   void Add(double time, const double* row);
 
   // Evaluates with the data so far. Never fails: missing data shows in the estimate's state.
@@ -54,7 +64,7 @@ class Statistic {
 
   std::string name_;
   StatisticFormula formula_;
-  BlockHistory history_;
+  std::shared_ptr<BlockHistory> history_;
 };
 
 }  // namespace plateau

@@ -7,24 +7,38 @@
 namespace plateau {
 
 std::optional<StatisticFormula> StatisticFormula::Make(StatisticKind kind, std::vector<int> columns,
-                                                       std::string* error) {
+                                                       std::string* error,
+                                                       const std::vector<int>* history_signals) {
   const int expected = KindColumnCount(kind);
   if (static_cast<int>(columns.size()) != expected) {
     *error = std::string(KindName(kind)) + " takes " + std::to_string(expected) + " column" +
              (expected == 1 ? "" : "s") + ", got " + std::to_string(columns.size());
     return std::nullopt;
   }
-  return StatisticFormula(kind, std::move(columns));
+  std::vector<int> signals;
+  if (history_signals != nullptr) {
+    signals = *history_signals;
+    for (int column : columns) {
+      if (std::find(signals.begin(), signals.end(), column) == signals.end()) {
+        *error = "a column of the statistic is not in its shared history";
+        return std::nullopt;
+      }
+    }
+  } else {
+    for (int column : columns) {
+      if (std::find(signals.begin(), signals.end(), column) == signals.end()) {
+        signals.push_back(column);
+      }
+    }
+  }
+  return StatisticFormula(kind, std::move(columns), std::move(signals));
 }
 
-StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns)
-    : kind_(kind), columns_(std::move(columns)) {
+StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns,
+                                   std::vector<int> signals)
+    : kind_(kind), columns_(std::move(columns)), signals_(std::move(signals)) {
   for (int column : columns_) {
-    auto it = std::find(signals_.begin(), signals_.end(), column);
-    if (it == signals_.end()) {
-      signals_.push_back(column);
-      it = signals_.end() - 1;
-    }
+    const auto it = std::find(signals_.begin(), signals_.end(), column);
     signal_of_column_.push_back(static_cast<int>(it - signals_.begin()));
   }
   switch (kind_) {
@@ -37,6 +51,14 @@ StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns)
     default:
       order_ = 2;
   }
+}
+
+std::vector<int> StatisticFormula::used_signals() const {
+  std::vector<int> used;
+  for (int s : signal_of_column_) {
+    if (std::find(used.begin(), used.end(), s) == used.end()) used.push_back(s);
+  }
+  return used;
 }
 
 Powers StatisticFormula::ProductOf(std::initializer_list<int> which) const {

@@ -22,14 +22,21 @@ struct WeightedMoment {
 class StatisticFormula {
  public:
   // `columns` are positions in a data row (KindColumnCount(kind) of them; third_moment may repeat a
-  // column, as in <u'u'v'>). Returns nullopt and sets *error when the count is wrong.
+  // column, as in <u'u'v'>). The formula's signals are its distinct columns, or, when
+  // `history_signals` is given, those of a history shared with other statistics (every column must
+  // be one of them). Returns nullopt and sets *error when the count is wrong or a column is not in
+  // the shared history.
   static std::optional<StatisticFormula> Make(StatisticKind kind, std::vector<int> columns,
-                                              std::string* error);
+                                              std::string* error,
+                                              const std::vector<int>* history_signals = nullptr);
 
   StatisticKind kind() const { return kind_; }
   const std::vector<int>& columns() const { return columns_; }
-  // Distinct row positions, in first-use order: the signals of the statistic's block history.
+  // Row positions of the history's signals: the distinct columns in first-use order, or the shared
+  // history's.
   const std::vector<int>& signals() const { return signals_; }
+  // Which of signals() the formula uses (indices into signals()).
+  std::vector<int> used_signals() const;
   // Order of the moments the history must keep: twice the statistic's own order, so that the
   // sample-level variance of the linearised series (needed for tau in samples) is exact.
   int history_order() const { return 2 * order_; }
@@ -43,7 +50,7 @@ class StatisticFormula {
                                             const double* global) const;
 
  private:
-  StatisticFormula(StatisticKind kind, std::vector<int> columns);
+  StatisticFormula(StatisticKind kind, std::vector<int> columns, std::vector<int> signals);
   // Powers selecting the product of the statistic's columns with positions `which` in columns_.
   Powers ProductOf(std::initializer_list<int> which) const;
 

@@ -2,6 +2,15 @@
 
 namespace plateau {
 
+StatisticRequest MakeRequest(StatisticKind kind, std::vector<std::string> columns,
+                             std::string name) {
+  StatisticRequest r;
+  r.kind = kind;
+  r.columns = std::move(columns);
+  r.name = std::move(name);
+  return r;
+}
+
 std::string DefaultStatisticName(StatisticKind kind, const std::vector<std::string>& columns) {
   std::string joined;
   for (const std::string& c : columns) joined += (joined.empty() ? "" : ",") + c;

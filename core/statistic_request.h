@@ -14,7 +14,15 @@ struct StatisticRequest {
   StatisticKind kind = StatisticKind::kMean;
   std::vector<std::string> columns;
   std::string name;  // empty: DefaultStatisticName
+  // Requests with the same non-empty key share one history of `shared_columns` (at most three;
+  // the point of a probe line: u, v, w), kept to the highest order any of them needs.
+  std::string shared_history;
+  std::vector<std::string> shared_columns;
 };
+
+// A request with a history of its own.
+StatisticRequest MakeRequest(StatisticKind kind, std::vector<std::string> columns,
+                             std::string name = "");
 
 // The name a statistic shows when the user gave none: the column itself for a mean, otherwise
 // kind(columns), e.g. var(u), rms(u), cov(u,v), m3(u,u,v), tke(u,v,w).

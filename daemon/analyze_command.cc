@@ -158,20 +158,20 @@ std::vector<StatisticRequest> BuildRequests(const AnalyzeOptions& o,
   std::vector<StatisticRequest> requests;
   if (o.means != "none") {
     for (const std::string& c : ListedColumns(o.means, columns, o.time_column)) {
-      requests.push_back({StatisticKind::kMean, {c}, ""});
+      requests.push_back(MakeRequest(StatisticKind::kMean, {c}));
     }
   }
   const auto per_column = [&](const std::vector<std::string>& lists, StatisticKind kind) {
     for (const std::string& list : lists) {
       for (const std::string& c : ListedColumns(list, columns, o.time_column)) {
-        requests.push_back({kind, {c}, ""});
+        requests.push_back(MakeRequest(kind, {c}));
       }
     }
   };
   per_column(o.variance_lists, StatisticKind::kVariance);
   per_column(o.rms_lists, StatisticKind::kRms);
   const auto grouped = [&](const std::vector<std::string>& lists, StatisticKind kind) {
-    for (const std::string& list : lists) requests.push_back({kind, SplitList(list), ""});
+    for (const std::string& list : lists) requests.push_back(MakeRequest(kind, SplitList(list)));
   };
   grouped(o.covariances, StatisticKind::kCovariance);
   grouped(o.third_moments, StatisticKind::kThirdMoment);

@@ -525,7 +525,7 @@ Status RunMonitor::Evaluate(double wall_time) {
   for (EventRow& e : events) e.remaining_time = record.remaining_time;
   pending_events_.insert(pending_events_.end(), events.begin(), events.end());
   record.events = pending_events_;
-  for (const auto& tail : tails_) tail->Checkpoint(record);
+  for (auto& tail : tails_) tail->Checkpoint(record);
   for (const Tracked& t : tracked_) {
     record.checkpoint["tracker:" + t.config->request.name] = t.tracker.SaveState();
   }

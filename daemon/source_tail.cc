@@ -280,7 +280,7 @@ bool SourceTail::Poll(double wall_time) {
   return more;
 }
 
-void SourceTail::Checkpoint(CycleRecord& record) const {
+void SourceTail::Checkpoint(CycleRecord& record) {
   for (const TrackedFile& f : files_) {
     FileProgress p;
     p.path = f.path;
@@ -305,8 +305,8 @@ void SourceTail::Checkpoint(CycleRecord& record) const {
   if (!source_) return;
   record.checkpoint["gate:" + config_.name] = {source_->gate().last_time(),
                                                static_cast<double>(source_->gate().skipped())};
-  for (const Statistic& s : source_->statistics()) {
-    record.checkpoint["history:" + s.name()] = s.history().SaveState();
+  for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
+    record.checkpoint["history:" + config_.name + "/" + h.key] = h.history->SaveState();
   }
 }
 
@@ -334,10 +334,11 @@ void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
     source_->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
     overlap_reported_ = source_->gate().skipped();
   }
-  for (Statistic& s : source_->statistics()) {
-    const auto state = checkpoint.items.find("history:" + s.name());
-    if (state == checkpoint.items.end() || !s.history().RestoreState(state->second)) {
-      log_->warn("statistic '{}': no usable state in the checkpoint; it starts empty", s.name());
+  for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
+    const auto state = checkpoint.items.find("history:" + config_.name + "/" + h.key);
+    if (state == checkpoint.items.end() || !h.history->RestoreState(state->second)) {
+      log_->warn("source '{}', history {}: no usable state in the checkpoint; it starts empty",
+                 config_.name, h.key);
     }
   }
 }

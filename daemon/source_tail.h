@@ -51,7 +51,7 @@ class SourceTail {
   std::vector<std::string> Folders() const;
 
   // Adds this source's files, time gate and statistic histories to a cycle's checkpoint.
-  void Checkpoint(CycleRecord& record) const;
+  void Checkpoint(CycleRecord& record);
   // Resumes from a checkpoint written by Checkpoint with the same configuration.
   void Restore(const StoredCheckpoint& checkpoint);
 
