@@ -43,6 +43,7 @@ StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns,
   }
   switch (kind_) {
     case StatisticKind::kMean:
+    case StatisticKind::kAverage:
       order_ = 1;
       break;
     case StatisticKind::kThirdMoment:
@@ -84,6 +85,9 @@ double StatisticFormula::Value(const MomentLayout& layout, const double* summary
       return 0.5 * (layout.CentralMoment(summary, ProductOf({0, 0})) +
                     layout.CentralMoment(summary, ProductOf({1, 1})) +
                     layout.CentralMoment(summary, ProductOf({2, 2})));
+    case StatisticKind::kAverage:
+      return 0.5 * (layout.Mean(summary, signal_of_column_[0]) +
+                    layout.Mean(summary, signal_of_column_[1]));
   }
   return std::numeric_limits<double>::quiet_NaN();
 }
@@ -112,6 +116,8 @@ std::vector<WeightedMoment> StatisticFormula::Linearisation(const MomentLayout& 
     }
     case StatisticKind::kTke:
       return {{ProductOf({0, 0}), 0.5}, {ProductOf({1, 1}), 0.5}, {ProductOf({2, 2}), 0.5}};
+    case StatisticKind::kAverage:
+      return {{ProductOf({0}), 0.5}, {ProductOf({1}), 0.5}};
   }
   return {};
 }

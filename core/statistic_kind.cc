@@ -6,13 +6,14 @@
 namespace plateau {
 namespace {
 
-constexpr std::array<std::pair<StatisticKind, std::string_view>, 6> kNames{{
+constexpr std::array<std::pair<StatisticKind, std::string_view>, 7> kNames{{
     {StatisticKind::kMean, "mean"},
     {StatisticKind::kVariance, "variance"},
     {StatisticKind::kRms, "rms"},
     {StatisticKind::kCovariance, "covariance"},
     {StatisticKind::kThirdMoment, "third_moment"},
     {StatisticKind::kTke, "tke"},
+    {StatisticKind::kAverage, "average"},
 }};
 
 }  // namespace
@@ -38,6 +39,7 @@ int KindColumnCount(StatisticKind kind) {
     case StatisticKind::kRms:
       return 1;
     case StatisticKind::kCovariance:
+    case StatisticKind::kAverage:
       return 2;
     case StatisticKind::kThirdMoment:
     case StatisticKind::kTke:

@@ -15,10 +15,11 @@ enum class StatisticKind {
   kCovariance,   // <x'y'>, e.g. the Reynolds shear stress <u'v'>
   kThirdMoment,  // <x'y'w'>, e.g. the triple correlation <u'u'v'> of a TKE budget
   kTke,          // turbulent kinetic energy (<u'u'> + <v'v'> + <w'w'>) / 2
+  kAverage,      // mean of the average of two columns, e.g. the wall shear stress of both walls
 };
 
 // Stable names used on the command line and in JSON: mean, variance, rms, covariance,
-// third_moment, tke.
+// third_moment, tke, average.
 std::string_view KindName(StatisticKind kind);
 // Inverse of KindName; nullopt for an unknown name.
 std::optional<StatisticKind> ParseKind(std::string_view name);

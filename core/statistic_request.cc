@@ -27,6 +27,8 @@ std::string DefaultStatisticName(StatisticKind kind, const std::vector<std::stri
       return "m3(" + joined + ")";
     case StatisticKind::kTke:
       return "tke(" + joined + ")";
+    case StatisticKind::kAverage:
+      return "average(" + joined + ")";
   }
   return joined;
 }
