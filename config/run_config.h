@@ -26,6 +26,33 @@ struct StatisticConfig {
   std::optional<Target> target;
   double minimum_time = 0.0;
   std::optional<double> reference;
+  // For the statistics a profile expands into: its name, the point, its wall distance and the
+  // quantity (U, uu, uv, k, uuv, ...). Empty profile for an ordinary statistic.
+  std::string profile;
+  int point = -1;
+  double position = 0.0;
+  std::string quantity;
+};
+
+// Wall units: y+ = y u_tau / nu and quantities over powers of u_tau, with u_tau either known or
+// the friction velocity sqrt(tau_w / rho) of a wall shear statistic (with its uncertainty).
+struct WallUnitsConfig {
+  double viscosity = 0.0;        // kinematic, m^2/s
+  double density = 0.0;          // kg/m^3; needed with wall_shear
+  std::string wall_shear;        // a statistic's name, or empty
+  double friction_velocity = 0.0;  // known u_tau, or NaN
+  double half_height = 0.0;      // channel half-height delta for Re_tau and the momentum balance;
+                                 // NaN when not given
+};
+
+// A line of probe points whose columns follow a pattern: "u{i}" names point i's u column.
+struct ProfileConfig {
+  std::string name;
+  std::string source;
+  std::vector<double> positions;  // wall distance of each point
+  std::vector<std::string> quantities;
+  std::vector<std::pair<std::string, std::string>> references;  // quantity -> file (absolute)
+  bool momentum_balance = false;
 };
 
 // Statistics that stop jointly: a group is met when all its members are. With Bonferroni each
@@ -86,6 +113,8 @@ struct RunConfig {
   std::vector<SourceConfig> sources;
   std::vector<StatisticConfig> statistics;
   std::vector<GroupConfig> groups;
+  std::optional<WallUnitsConfig> wall_units;
+  std::vector<ProfileConfig> profiles;  // their statistics are in `statistics` too
   AlertsConfig alerts;
   double planned_end_time = 0.0;  // simulated time the run was planned to reach; NaN: not given
   double cores = 0.0;             // cores the solver job holds; NaN: not given

@@ -149,7 +149,7 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   const auto per_statistic = [&](const std::string& name, const std::string& help, auto field) {
     Family family(out, name, "gauge", help);
     for (const SnapshotRow& s : cycle.snapshots) {
-      if (s.target_kind == "group") continue;
+      if (s.target_kind == "group" || s.target_kind == "profile") continue;
       family.Sample(run + ",statistic=\"" + Label(s.statistic) + "\"", field(s));
     }
   };

@@ -66,6 +66,12 @@ std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
     json.Null();
   }
   json.Field("minimum_time", c.minimum_time);
+  if (!c.profile.empty()) {
+    json.Field("profile", c.profile);
+    json.Field("point", c.point);
+    json.Field("position", c.position);
+    json.Field("quantity", c.quantity);
+  }
   WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
   json.Key("reference");
   if (c.reference) {
@@ -112,6 +118,7 @@ RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
         {&s, TailOf(s.source), ConvergenceTracker(s.request.name, s.target, SettingsFor(config_, s))});
   }
   AssignConfidences();
+  summaries_ = std::make_unique<ProfileSummaries>(config_, log_);
 }
 
 void RunMonitor::AssignConfidences() {
@@ -146,7 +153,7 @@ std::string RunMonitor::Fingerprint(const RunConfig& config) {
   }
   for (const StatisticConfig& s : config.statistics) {
     f += "|statistic=" + s.request.name + ";" + s.source + ";" +
-         std::string(KindName(s.request.kind)) + ";";
+         std::string(KindName(s.request.kind)) + ";" + s.request.shared_history + ";";
     for (const std::string& c : s.request.columns) f += c + ",";
   }
   return f;
@@ -304,8 +311,16 @@ std::string RunMonitor::Reload(const RunConfig& fresh) {
   config_.poll_every = fresh.poll_every;
   config_.planned_end_time = fresh.planned_end_time;
   config_.cores = fresh.cores;
-  if (same_layout) config_.groups = fresh.groups;
+  if (same_layout) {
+    config_.groups = fresh.groups;
+    config_.wall_units = fresh.wall_units;
+    for (std::size_t i = 0; i < config_.profiles.size() && i < fresh.profiles.size(); ++i) {
+      config_.profiles[i].references = fresh.profiles[i].references;
+      config_.profiles[i].momentum_balance = fresh.profiles[i].momentum_balance;
+    }
+  }
   AssignConfidences();
+  summaries_ = std::make_unique<ProfileSummaries>(config_, log_);
   return same_layout ? "config reloaded: targets, alerts and intervals apply now"
                      : "config reloaded: targets, alerts and intervals apply now; the sources or "
                        "statistics changed too, which takes a restart of plateau watch";
@@ -327,7 +342,8 @@ std::vector<std::string> RunMonitor::Folders() const {
   return folders;
 }
 
-SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events) {
+SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events,
+                                 StatisticEstimate* estimate) {
   const StatisticConfig& c = *t.config;
   EvaluationOptions options = config_.evaluation;
   options.confidence = t.confidence;
@@ -393,7 +409,9 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   if (c.reference) {
     row.reference_verdict = std::string(VerdictName(CompareWithReference(e, *c.reference).verdict));
   }
+  row.profile = c.profile;
   row.json = StatisticJson(e, c, t.tracker, row, wall_time);
+  *estimate = std::move(e);
   return row;
 }
 
@@ -461,7 +479,10 @@ bool RunMonitor::RunMet(const std::vector<SnapshotRow>& rows) const {
   int targets = 0;
   for (const SnapshotRow& r : rows) {
     const bool group = r.target_kind == "group";
-    if (r.target_kind.empty() || (!group && in_a_group(r.statistic))) continue;
+    if (r.target_kind.empty() || r.target_kind == "profile" ||
+        (!group && in_a_group(r.statistic))) {
+      continue;
+    }
     if (group) {
       const auto g = std::find_if(config_.groups.begin(), config_.groups.end(),
                                   [&](const GroupConfig& x) { return x.name == r.statistic; });
@@ -493,8 +514,10 @@ Status RunMonitor::Evaluate(double wall_time) {
   int targets = 0;
   int met = 0;
   record.remaining_time = 0.0;
-  for (Tracked& t : tracked_) {
-    record.snapshots.push_back(Snapshot(t, wall_time, events));
+  std::vector<StatisticEstimate> estimates(tracked_.size());
+  for (std::size_t i = 0; i < tracked_.size(); ++i) {
+    Tracked& t = tracked_[i];
+    record.snapshots.push_back(Snapshot(t, wall_time, events, &estimates[i]));
     if (t.config->target) {
       ++targets;
       met += t.tracker.met();
@@ -506,6 +529,11 @@ Status RunMonitor::Evaluate(double wall_time) {
   const double rate = rate_.PerHour();
   record.remaining_wall = rate > 0.0 ? record.remaining_time / rate * 3600.0 : kNaN;
   const std::size_t statistic_rows = record.snapshots.size();
+  std::vector<ProfileSummaries::Entry> entries;
+  for (std::size_t i = 0; i < tracked_.size(); ++i) {
+    entries.push_back({tracked_[i].config, &estimates[i], &record.snapshots[i]});
+  }
+  for (SnapshotRow& row : summaries_->Rows(entries)) record.snapshots.push_back(std::move(row));
   for (const GroupConfig& g : config_.groups) {
     record.snapshots.push_back(GroupSnapshot(
         g,

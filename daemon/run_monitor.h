@@ -16,6 +16,7 @@
 #include "core/convergence_tracker.h"
 #include "core/progress_rate.h"
 #include "core/status.h"
+#include "daemon/profile_summaries.h"
 #include "daemon/source_tail.h"
 #include "store/run_store.h"
 
@@ -72,7 +73,9 @@ class RunMonitor {
     double confidence = 0.95;  // the target's, or stricter inside a Bonferroni group
   };
   SourceTail* TailOf(const std::string& source);
-  SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events);
+  // The row of one statistic; its estimate goes to *estimate (profiles and wall units use it).
+  SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events,
+                       StatisticEstimate* estimate);
   SnapshotRow GroupSnapshot(const GroupConfig& group, const std::vector<SnapshotRow>& rows,
                             double wall_time) const;
   // Per statistic, the confidence it is judged at (Bonferroni groups make it stricter).
@@ -89,6 +92,7 @@ class RunMonitor {
   std::unique_ptr<RunStore> store_;
   std::shared_ptr<spdlog::logger> log_;
   std::vector<std::unique_ptr<SourceTail>> tails_;
+  std::unique_ptr<ProfileSummaries> summaries_;
   std::vector<Tracked> tracked_;
   std::vector<EventRow> pending_events_;
   std::int64_t cycle_ = 0;

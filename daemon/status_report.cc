@@ -64,6 +64,7 @@ struct Tally {
 };
 
 bool IsGroup(const SnapshotRow& s) { return s.target_kind == "group"; }
+bool IsProfileSummary(const SnapshotRow& s) { return s.target_kind == "profile"; }
 
 // "300 time units (about 2.1 h, at 2026-12-02 10:15 UTC)", or "unknown".
 std::string Prediction(double simulated, double wall_seconds, double now) {
@@ -82,7 +83,7 @@ Tally Count(const LatestView& v) {
   Tally t;
   for (const SnapshotRow& s : v.statistics) {
     if (s.state == "column_missing" && !t.column_missing) t.column_missing = &s;
-    if (s.target_kind.empty() || IsGroup(s)) continue;
+    if (s.target_kind.empty() || IsGroup(s) || IsProfileSummary(s)) continue;
     ++t.targets;
     if (s.state == "met") {
       ++t.met;
@@ -124,7 +125,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                    {"time to target", A::kRight},
                    {"vs reference", A::kLeft}});
   for (const SnapshotRow& s : v.statistics) {
-    if (IsGroup(s)) continue;
+    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty()) continue;
     char tau[32], neff[32];
     std::snprintf(tau, sizeof tau, "%.3g", s.integrated_time);
     std::snprintf(neff, sizeof neff, "%.0f", s.effective_samples);
@@ -144,6 +145,11 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
   for (const SnapshotRow& s : v.statistics) {
     if (IsGroup(s)) out += "group " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
   }
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsProfileSummary(s)) {
+      out += "profile " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
+    }
+  }
   const Tally t = Count(v);
   if (t.targets == 0) {
     out += "no statistic has a target: nothing to stop on\n";
@@ -151,13 +157,19 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     out += "every target is met (" + std::to_string(t.met) + " of " + std::to_string(t.targets) +
            "): stop the solver\n";
   } else {
-    out += std::to_string(t.met) + " of " + std::to_string(t.targets) +
-           " targets met: continue; every target is expected to be met after " +
-           Prediction(v.remaining_time, v.remaining_wall, c.now) + "\n";
+    out += std::to_string(t.met) + " of " + std::to_string(t.targets) + " targets met: continue; " +
+           (v.remaining_time == 0.0
+                ? std::string("every half-width is within its target, waiting for confirmations")
+                : "every target is expected to be met after " +
+                      Prediction(v.remaining_time, v.remaining_wall, c.now)) +
+           "\n";
   }
   bool header = false;
   for (const SnapshotRow& s : v.statistics) {
-    if (IsGroup(s) || s.state == "met" || s.state == "monitored" || s.state_reason.empty()) continue;
+    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty() || s.state == "met" ||
+        s.state == "monitored" || s.state_reason.empty()) {
+      continue;
+    }
     if (!header) out += "\nnotes:\n";
     header = true;
     out += "  " + s.statistic + ": " + StateWords(s.state) + ": " + s.state_reason + "\n";
@@ -251,6 +263,8 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
     SnapshotRow row;
     row.statistic = TextOr(s.Find("name"));
     if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
+    if (s.Find("points") != nullptr) row.target_kind = "profile";
+    if (s.Find("point") != nullptr) row.profile = TextOr(s.Find("profile"));
     row.state = TextOr(s.Find("state"));
     row.state_reason = TextOr(s.Find("state_reason"));
     row.value = NumberOr(s.Find("mean"));

@@ -64,6 +64,7 @@ ALTER TABLE events ADD COLUMN remaining_time REAL;
 ALTER TABLE snapshots ADD COLUMN remaining_time REAL;
 ALTER TABLE snapshots ADD COLUMN remaining_wall REAL;
 ALTER TABLE snapshots ADD COLUMN reference_verdict TEXT NOT NULL DEFAULT '';
+ALTER TABLE snapshots ADD COLUMN profile TEXT NOT NULL DEFAULT '';
 ALTER TABLE cycles ADD COLUMN remaining_time REAL;
 ALTER TABLE cycles ADD COLUMN remaining_wall REAL;
 CREATE TABLE deliveries(
@@ -219,7 +220,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     if (!(s = db.Execute("DELETE FROM latest")).ok()) return s;
     auto snapshot = db.Prepare(
         "INSERT OR REPLACE INTO snapshots VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
-        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22)",
+        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22, ?23)",
         &s);
     auto latest = db.Prepare("INSERT INTO latest VALUES (?1, ?2)", &s);
     if (!snapshot || !latest) return s;
@@ -249,6 +250,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       snapshot->Bind(20, row.remaining_time);
       snapshot->Bind(21, row.remaining_wall);
       snapshot->Bind(22, row.reference_verdict);
+      snapshot->Bind(23, row.profile);
       if (!(s = snapshot->Run()).ok()) return s;
       latest->Reset();
       latest->Bind(1, position);
@@ -417,7 +419,7 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
         "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
         "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
         "s.target_half_width, s.met_at_time, s.met_at_wall, s.remaining_time, s.remaining_wall, "
-        "s.reference_verdict, l.json FROM snapshots s "
+        "s.reference_verdict, s.profile, l.json FROM snapshots s "
         "JOIN latest l ON l.position = s.position WHERE s.cycle = ?1 ORDER BY s.position",
         status);
     if (!rows) return;
@@ -444,7 +446,8 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       row.remaining_time = rows->ColumnDouble(17);
       row.remaining_wall = rows->ColumnDouble(18);
       row.reference_verdict = rows->ColumnText(19);
-      row.json = rows->ColumnText(20);
+      row.profile = rows->ColumnText(20);
+      row.json = rows->ColumnText(21);
       v.statistics.push_back(std::move(row));
     }
     if (!(*status = rows->status()).ok()) return;

@@ -57,6 +57,7 @@ struct SnapshotRow {
   double remaining_time = 0.0;  // simulated time still needed for the target; NaN: unknown
   double remaining_wall = 0.0;  // the same in wall-clock seconds at the observed rate
   std::string reference_verdict;  // consistent, bias, undetermined, or empty without a reference
+  std::string profile;  // a profile point's profile (status folds those into summaries)
   std::string json;  // the full status object; kept for the newest cycle only
 };
 

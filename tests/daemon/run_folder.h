@@ -7,6 +7,8 @@
 #include <unistd.h>
 
 #include <atomic>
+#include <cstdio>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <optional>
@@ -47,8 +49,13 @@ class RunFolder : public ::testing::Test {
     std::filesystem::remove_all(dir_);
     std::filesystem::create_directories(dir_);
   }
+  // Kept when the test failed, or always with PLATEAU_KEEP_TEST_FOLDERS set (to look inside).
   void TearDown() override {
-    if (!HasFailure()) std::filesystem::remove_all(dir_);
+    if (!HasFailure() && std::getenv("PLATEAU_KEEP_TEST_FOLDERS") == nullptr) {
+      std::filesystem::remove_all(dir_);
+    } else {
+      std::printf("run folder kept: %s\n", dir_.c_str());
+    }
   }
 
   std::string Path(const std::string& name) const { return (dir_ / name).string(); }
