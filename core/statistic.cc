@@ -189,6 +189,10 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   e.integrated_time_sokal = tau_of(e.se_sokal);
   e.batch_length = bm.batch_size * length;
   e.oscillation_period = acf.oscillation_period * length;
+  e.autocorrelation.assign(
+      acf.rho.begin(),
+      acf.rho.begin() + std::min(acf.rho.size(), StatisticEstimate::kAutocorrelationLags));
+  e.autocorrelation_lag = length;
 
   EstimatorEvidence evidence;
   evidence.se_batch_means = e.se_batch_means;

@@ -61,6 +61,12 @@ struct StatisticEstimate {
   DriftTest drift;
   bool drift_detected = false;
 
+  // The autocorrelation of the linearised block series, lag 0 first, at most kAutocorrelationLags
+  // lags of autocorrelation_lag samples each (the block length), for plots.
+  static constexpr std::size_t kAutocorrelationLags = 128;
+  std::vector<double> autocorrelation;
+  double autocorrelation_lag = kNaN;
+
   std::vector<std::string> warnings;  // plain sentences: few effective samples, disagreement, ...
 };
 

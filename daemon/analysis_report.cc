@@ -161,6 +161,14 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
   json.BeginArray();
   for (const std::string& w : e.warnings) json.String(w);
   json.EndArray();
+  json.Key("autocorrelation");
+  json.BeginObject();
+  json.Field("lag_samples", e.autocorrelation_lag);
+  json.Key("rho");
+  json.BeginArray();
+  for (double r : e.autocorrelation) json.Number(r);
+  json.EndArray();
+  json.EndObject();
 }
 
 std::string FormatAnalysisTable(const AnalysisResult& result) {

@@ -6,6 +6,7 @@
 
 #include "daemon/analyze_command.h"
 #include "daemon/init_command.h"
+#include "daemon/report_command.h"
 #include "daemon/status_command.h"
 #include "daemon/watch_command.h"
 
@@ -23,6 +24,7 @@ void PrintUsage(std::ostream& out) {
          "  watch CONFIG      follow a running simulation (the daemon)\n"
          "  status [RUN]      every statistic as last evaluated\n"
          "  check [RUN]       stop or continue, as an exit status (0 stop, 1 continue, 2 unknown)\n"
+         "  report [RUN]      one HTML file with plots of every statistic and profile\n"
          "  help [COMMAND]    this text, or a command's own\n"
          "  version           the program version\n\n"
          "Run 'plateau COMMAND --help' for a command's options.\n";
@@ -44,6 +46,7 @@ int main(int argc, char** argv) {
   if (command == "watch") return plateau::RunWatchCommand(rest, std::cout, std::cerr);
   if (command == "status") return plateau::RunStatusCommand(rest, std::cout, std::cerr);
   if (command == "check") return plateau::RunCheckCommand(rest, std::cout, std::cerr);
+  if (command == "report") return plateau::RunReportCommand(rest, std::cout, std::cerr);
   if (command == "version" || command == "--version") {
     std::cout << "plateau " << kVersion << "\n";
     return 0;
@@ -62,6 +65,8 @@ int main(int argc, char** argv) {
       std::cout << plateau::StatusUsage();
     } else if (topic == "check") {
       std::cout << plateau::CheckUsage();
+    } else if (topic == "report") {
+      std::cout << plateau::ReportUsage();
     } else {
       PrintUsage(std::cout);
     }

@@ -499,6 +499,44 @@ std::vector<EventRow> RunStore::ReadEvents(std::int64_t after_id, int limit, Sta
   return events;
 }
 
+std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
+  std::vector<HistoryRow> history;
+  auto query = connection_->Prepare(
+      "SELECT s.cycle, c.wall_time, s.statistic, s.state, s.state_reason, s.value, s.half_width, "
+      "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
+      "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
+      "s.target_half_width, s.remaining_time, s.profile FROM snapshots s "
+      "JOIN cycles c ON c.cycle = s.cycle ORDER BY s.cycle, s.position",
+      status);
+  if (!query) return history;
+  while (query->Step()) {
+    HistoryRow h;
+    h.cycle = query->ColumnInt(0);
+    h.wall_time = query->ColumnDouble(1);
+    SnapshotRow& s = h.snapshot;
+    s.statistic = query->ColumnText(2);
+    s.state = query->ColumnText(3);
+    s.state_reason = query->ColumnText(4);
+    s.value = query->ColumnDouble(5);
+    s.half_width = query->ColumnDouble(6);
+    s.relative_half_width = query->ColumnDouble(7);
+    s.integrated_time = query->ColumnDouble(8);
+    s.effective_samples = query->ColumnDouble(9);
+    s.warmup_end_time = query->ColumnDouble(10);
+    s.samples_used = query->ColumnInt(11);
+    s.last_time = query->ColumnDouble(12);
+    s.confidence = query->ColumnDouble(13);
+    s.target_kind = query->ColumnText(14);
+    s.target_value = query->ColumnDouble(15);
+    s.target_half_width = query->ColumnDouble(16);
+    s.remaining_time = query->ColumnDouble(17);
+    s.profile = query->ColumnText(18);
+    history.push_back(std::move(h));
+  }
+  *status = query->status();
+  return history;
+}
+
 std::vector<DeliveryRow> RunStore::DueDeliveries(double now, Status* status) {
   std::vector<DeliveryRow> due;
   auto query = connection_->Prepare(

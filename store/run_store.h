@@ -102,6 +102,13 @@ struct CycleRecord {
   std::map<std::string, std::vector<double>> checkpoint;  // item -> state
 };
 
+// One statistic at one cycle, for the report's time histories and the CSV export.
+struct HistoryRow {
+  std::int64_t cycle = 0;
+  double wall_time = 0.0;
+  SnapshotRow snapshot;  // without json
+};
+
 // The newest complete cycle, as status and check read it.
 struct LatestView {
   std::string run_name;
@@ -139,6 +146,8 @@ class RunStore {
   std::optional<StoredCheckpoint> ReadCheckpoint(Status* status);
   // The newest cycle, read in one transaction; nullopt (with an ok status) before the first cycle.
   std::optional<LatestView> ReadLatest(Status* status);
+  // Every snapshot of every cycle, cycle by cycle in configuration order, in one transaction.
+  std::vector<HistoryRow> ReadHistory(Status* status);
   // Events after `after_id`, oldest first, at most `limit`.
   std::vector<EventRow> ReadEvents(std::int64_t after_id, int limit, Status* status);
   // Deliveries not yet made whose next attempt is due at `now`, oldest event first.
