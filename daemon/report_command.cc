@@ -38,6 +38,7 @@ svg text { font-size: 11px; fill: #333; } svg text.title { font-size: 12px; font
 .reference { fill: none; stroke: #2e8b57; stroke-width: 1.5; stroke-dasharray: 4 2; }
 .points { stroke: #1f5fa8; fill: #1f5fa8; }
 .tau { stroke: #8e44ad; stroke-dasharray: 3 3; }
+svg text.legend, svg text.marker { stroke: none; }
 text.legend.value, text.legend.points { fill: #1f5fa8; } text.legend.reference { fill: #2e8b57; }
 text.legend.slope { fill: #777; }
 .state-met { color: #1e7d32; font-weight: bold; } .state-drifting { color: #c0392b; }

@@ -24,7 +24,7 @@ class SvgPlot {
   void HorizontalLine(double y, std::string style, std::string label);
 
   // The <svg> element; a note instead of axes when nothing is plottable.
-  std::string Render(int width = 440, int height = 270) const;
+  std::string Render(int width = 400, int height = 270) const;
 
   // XML text escaping for element content and attribute values.
   static std::string Escape(const std::string& text);
