@@ -190,8 +190,10 @@ TEST(ConfigLoader, ShippedExampleIsValid) {
   std::vector<ConfigError> errors;
   const auto c = LoadRunConfig(PLATEAU_SOURCE_DIR "/config/example.yaml", &errors);
   ASSERT_TRUE(c.has_value()) << errors.front().ToString();
-  EXPECT_EQ(c->statistics.size(), 5u);
-  EXPECT_EQ(c->statistics[4].request.name, "m3(u,u,v)");
+  EXPECT_EQ(c->statistics.size(), 6u + 6u * 6u);  // six statistics, six points of six quantities
+  EXPECT_EQ(c->statistics[5].request.name, "m3(u,u,v)");
+  EXPECT_EQ(c->groups.at(0).members.size(), 2u);
+  EXPECT_EQ(c->wall_units->wall_shear, "tau_w");
   EXPECT_EQ(c->sources[1].columns.size(), 4u);
 }
 
