@@ -8,6 +8,7 @@
 #include <filesystem>
 #include <fstream>
 #include <limits>
+#include <map>
 #include <set>
 #include <sstream>
 
@@ -608,7 +609,7 @@ std::optional<ProfileConfig> Loader::LoadProfile(const YAML::Node& node, RunConf
   }
   CheckKeys(node,
             {"name", "source", "positions", "columns", "first_index", "quantities", "target",
-             "reference", "momentum_balance"},
+             "targets", "reference", "momentum_balance"},
             "a profile");
   ProfileConfig p;
   bool ok = true;
@@ -674,10 +675,27 @@ std::optional<ProfileConfig> Loader::LoadProfile(const YAML::Node& node, RunConf
   }
   p.quantities = node["quantities"] ? TextList(node["quantities"], "quantities")
                                     : std::vector<std::string>{"U", "uu", "vv", "ww", "uv", "k"};
+  // One target for every quantity, and/or one per quantity (which wins); a quantity with neither
+  // is monitored.
   std::optional<Target> target;
   if (node["target"]) {
     target = LoadTarget(node["target"], c.evaluation.confidence);
     ok = ok && target.has_value();
+  }
+  std::map<std::string, Target> targets;
+  if (const YAML::Node per = node["targets"]) {
+    if (!per.IsMap()) {
+      Error(per, "targets must map quantities to targets, such as {U: {relative: 0.02}}");
+      ok = false;
+    } else {
+      for (auto it = per.begin(); it != per.end(); ++it) {
+        if (auto t = LoadTarget(it->second, c.evaluation.confidence)) {
+          targets[it->first.Scalar()] = *t;
+        } else {
+          ok = false;
+        }
+      }
+    }
   }
   if (node["momentum_balance"]) ok = Flag(node["momentum_balance"], "momentum_balance", &p.momentum_balance) && ok;
   if (const YAML::Node reference = node["reference"]) {
@@ -713,7 +731,8 @@ std::optional<ProfileConfig> Loader::LoadProfile(const YAML::Node& node, RunConf
       s.request.shared_history = p.name + "[" + std::to_string(i) + "]";
       s.request.shared_columns = {u, v, w};
       s.source = p.source;
-      s.target = target;
+      const auto own = targets.find(q);
+      s.target = own != targets.end() ? std::optional<Target>(own->second) : target;
       s.profile = p.name;
       s.point = static_cast<int>(i);
       s.position = p.positions[i];

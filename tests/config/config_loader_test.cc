@@ -164,6 +164,7 @@ TEST(ConfigLoader, ProfileExpandsIntoPointStatisticsSharingAHistoryPerPoint) {
           "0.025}\nprofiles:\n  - name: line\n    positions: [0.001, 0.002, 0.004]\n"
           "    columns: {u: \"u{i}\", v: \"v{i}\", w: \"w{i}\"}\n    first_index: 1\n"
           "    quantities: [U, uv, k, uuv]\n    target: {relative: 0.02}\n"
+          "    targets: {uv: {absolute: 0.001}}\n"
           "    reference: {U: dns/u_plus.dat}\n    momentum_balance: true\n",
       "/runs/ch420/run.yaml", &errors);
   ASSERT_TRUE(c.has_value()) << errors.front().ToString();
@@ -175,7 +176,9 @@ TEST(ConfigLoader, ProfileExpandsIntoPointStatisticsSharingAHistoryPerPoint) {
   EXPECT_EQ(uv.request.shared_history, "line[1]");
   EXPECT_EQ(uv.request.shared_columns, (std::vector<std::string>{"u2", "v2", "w2"}));
   EXPECT_EQ(uv.position, 0.002);
+  EXPECT_EQ(uv.target->kind, Target::Kind::kAbsolute);  // its own target beats the profile's
   EXPECT_EQ(c->statistics.back().request.kind, StatisticKind::kThirdMoment);
+  EXPECT_EQ(c->statistics.back().target->value, 0.02);
   EXPECT_EQ(c->profiles.at(0).references.at(0).second, "/runs/ch420/dns/u_plus.dat");
   EXPECT_EQ(c->wall_units->wall_shear, "tau_lower");
   const auto bad = Errors(std::string(kValid) +
