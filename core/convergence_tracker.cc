@@ -1,5 +1,7 @@
 #include "core/convergence_tracker.h"
 
+#include <algorithm>
+
 #include <cmath>
 #include <limits>
 #include <sstream>
@@ -124,14 +126,23 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
     }
   }
   if (estimate.state == EstimateState::kEstimated) {
-    if (estimate.drift_detected && !drift_reported_) {
+    // Drift at start-up is what the warm-up cut and the drifting state are for; an event says
+    // that a statistic which had settled moves again, so it needs a steady spell first.
+    const bool steady_before = steady_evaluations_ >= settings_.confirmations;
+    if (estimate.drift_detected) {
+      steady_evaluations_ = 0;
+    } else if (estimate.samples_total > steady_samples_) {
+      ++steady_evaluations_;
+    }
+    steady_samples_ = std::max(steady_samples_, estimate.samples_total);
+    if (estimate.drift_detected && !drift_reported_ && steady_before) {
       events.push_back({ConvergenceEvent::Kind::kDrift, statistic_, estimate.last_time, wall_time,
                         statistic_ + " drifts: the mean of the first 10 % differs from the last "
                                      "50 % (Geweke z = " +
                             Format(estimate.drift.z) + ", p = " + Format(estimate.drift.p_value) +
                             ")"});
     }
-    drift_reported_ = estimate.drift_detected;
+    drift_reported_ = estimate.drift_detected && (drift_reported_ || steady_before);
   }
   state_ = state;
   reason_ = reason;
@@ -147,12 +158,16 @@ void ConvergenceTracker::Retarget(std::optional<Target> target, StopRuleSettings
 std::vector<double> ConvergenceTracker::SaveState() const {
   return {static_cast<double>(consecutive_), met_ ? 1.0 : 0.0, met_at_time_, met_at_wall_,
           static_cast<double>(state_), static_cast<double>(confirmed_samples_),
-          drift_reported_ ? 1.0 : 0.0};
+          drift_reported_ ? 1.0 : 0.0, static_cast<double>(steady_evaluations_),
+          static_cast<double>(steady_samples_)};
 }
 
 bool ConvergenceTracker::RestoreState(const std::vector<double>& state) {
-  if (state.size() != 7) return false;
+  // Checkpoints written before the steady spell was kept have 7 entries: count them as settled.
+  if (state.size() != 7 && state.size() != 9) return false;
   drift_reported_ = state[6] != 0.0;
+  steady_evaluations_ = state.size() == 9 ? static_cast<int>(state[7]) : settings_.confirmations;
+  steady_samples_ = state.size() == 9 ? static_cast<std::uint64_t>(state[8]) : 0;
   confirmed_samples_ = static_cast<std::uint64_t>(state[5]);
   consecutive_ = static_cast<int>(state[0]);
   met_ = state[1] != 0.0;

@@ -59,8 +59,8 @@ class ConvergenceTracker {
   ConvergenceTracker(std::string statistic, std::optional<Target> target,
                      StopRuleSettings settings);
 
-  // Takes one evaluation; returns the events it causes (met, lost, drift first detected), in that
-  // order. Only an evaluation with new samples counts as a confirmation: re-evaluating a paused run
+  // Takes one evaluation; returns the events it causes (met, lost, drift), in that order. A drift
+  // event needs `confirmations` drift-free evaluations before it: start-up drift is no event. Only an evaluation with new samples counts as a confirmation: re-evaluating a paused run
   // proves nothing new.
   std::vector<ConvergenceEvent> Update(const StatisticEstimate& estimate, double wall_time);
 
@@ -94,6 +94,9 @@ class ConvergenceTracker {
   std::uint64_t confirmed_samples_ = 0;  // samples_total at the last counted confirmation
   bool met_ = false;
   bool drift_reported_ = false;
+  // Drift-free evaluations in a row, each with new samples (samples_total up to steady_samples_).
+  int steady_evaluations_ = 0;
+  std::uint64_t steady_samples_ = 0;
   double met_at_time_;
   double met_at_wall_;
 };

@@ -60,18 +60,33 @@ void AlertDispatcher::DispatchDue() {
     log_->error("cannot read the pending alerts: {}", status.message());
     return;
   }
+  std::vector<DeliveryRow> mail;
   for (const DeliveryRow& d : due) {
-    if (in_flight_.insert({d.event.id, d.channel}).second) Deliver(d);
+    if (!in_flight_.insert({d.event.id, d.channel}).second) continue;
+    if (d.channel == "email" && monitor_.config().alerts.email) {
+      mail.push_back(d);
+    } else {
+      Deliver(d);
+    }
   }
+  if (!mail.empty()) DeliverMail(std::move(mail));
+}
+
+// Every e-mail due now goes in one message: a cycle that meets a profile's forty targets should
+// not send forty messages. Each delivery is recorded on its own, with the one result.
+void AlertDispatcher::DeliverMail(std::vector<DeliveryRow> due) {
+  std::vector<EventRow> events;
+  for (const DeliveryRow& d : due) events.push_back(d.event);
+  SendAlertMail(io_, *monitor_.config().alerts.email, ComposeDigest(events, monitor_.config()),
+                [this, due = std::move(due)](Status result) {
+                  for (const DeliveryRow& d : due) Finish(d, result);
+                });
 }
 
 void AlertDispatcher::Deliver(const DeliveryRow& d) {
   const RunConfig& config = monitor_.config();
   const AlertMessage message = ComposeAlert(d.event, config);
-  if (d.channel == "email" && config.alerts.email) {
-    SendAlertMail(io_, *config.alerts.email, message,
-                  [this, d](Status result) { Finish(d, result); });
-  } else if (d.channel == "command" && config.alerts.command) {
+  if (d.channel == "command" && config.alerts.command) {
     RunAlertCommand(io_, *config.alerts.command, message.environment,
                     [this, d](CommandResult result) {
                       log_->info("alert command for event {} ({}): {}{}", d.event.id, d.event.kind,

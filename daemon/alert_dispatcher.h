@@ -1,5 +1,5 @@
 // Delivers alerts: every delivery the store holds as due (one per event and channel) is started on
-// the event loop without blocking it; each outcome is recorded in the store, so that a restarted
+// the event loop without blocking it (the e-mails due at one moment as one message); each outcome is recorded in the store, so that a restarted
 // daemon neither loses a pending alert nor sends a delivered one again; a failure is retried with
 // doubling back-off and given up after max_attempts. Single-threaded: the loop owns it.
 #ifndef PLATEAU_DAEMON_ALERT_DISPATCHER_H_
@@ -13,6 +13,7 @@
 #include <memory>
 #include <set>
 #include <string>
+#include <vector>
 
 #include "daemon/run_monitor.h"
 
@@ -34,6 +35,7 @@ class AlertDispatcher {
 
  private:
   void Deliver(const DeliveryRow& delivery);
+  void DeliverMail(std::vector<DeliveryRow> due);  // all due e-mails as one message
   void Finish(const DeliveryRow& delivery, const Status& result);
   void ScheduleCheck();
 

@@ -1,7 +1,9 @@
 #include "daemon/alert_message.h"
 
+#include <algorithm>
 #include <cmath>
 #include <ctime>
+#include <iterator>
 
 #include "daemon/analysis_report.h"
 
@@ -36,7 +38,37 @@ std::string Headline(const EventRow& e, const RunConfig& c) {
   return c.run_name + ": " + e.kind;
 }
 
+// Lower is more important: what a person must act on comes first.
+int Importance(const std::string& kind) {
+  static const char* const kOrder[] = {"run_met", "run_lost", "stalled", "bad_lines",
+                                       "lost",    "drift",    "resumed", "met"};
+  for (int i = 0; i < static_cast<int>(std::size(kOrder)); ++i) {
+    if (kind == kOrder[i]) return i;
+  }
+  return static_cast<int>(std::size(kOrder));
+}
+
 }  // namespace
+
+AlertMessage ComposeDigest(std::vector<EventRow> events, const RunConfig& c) {
+  std::stable_sort(events.begin(), events.end(), [](const EventRow& a, const EventRow& b) {
+    return Importance(a.kind) < Importance(b.kind);
+  });
+  AlertMessage m = ComposeAlert(events.front(), c);
+  if (events.size() == 1) return m;
+  const std::size_t others = events.size() - 1;
+  m.subject += " (and " + std::to_string(others) + " more event" + (others == 1 ? ")" : "s)");
+  std::string also = "\nAlso in this message:\n";
+  const std::size_t shown = std::min(others, kDigestLines);
+  for (std::size_t i = 1; i <= shown; ++i) also += "- " + events[i].message + "\n";
+  if (shown < others) {
+    also += "- ... and " + std::to_string(others - shown) +
+            " more; `plateau status` shows every statistic\n";
+  }
+  const std::size_t footer = m.body.rfind("\nRun ");
+  m.body.insert(footer == std::string::npos ? m.body.size() : footer, also);
+  return m;
+}
 
 AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
   AlertMessage m;

@@ -23,6 +23,12 @@ struct AlertMessage {
 // that stopping now saves against the planned end.
 AlertMessage ComposeAlert(const EventRow& event, const RunConfig& config);
 
+// One message for several events at once (an evaluation can meet forty targets of a profile):
+// the most important event (run_met, run_lost, stalled, bad_lines, lost, drift, resumed, met) in
+// full, then one line per other event, at most kDigestLines of them. One event: ComposeAlert.
+AlertMessage ComposeDigest(std::vector<EventRow> events, const RunConfig& config);
+constexpr std::size_t kDigestLines = 50;
+
 }  // namespace plateau
 
 #endif  // PLATEAU_DAEMON_ALERT_MESSAGE_H_

@@ -60,11 +60,8 @@ TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet)
   ConvergenceTracker t = OnePercent();
   StatisticEstimate drifting = Estimated(2.0, 0.001, 1000);
   drifting.drift_detected = true;
-  const auto drift = t.Update(drifting, 1.0);
-  ASSERT_EQ(drift.size(), 1u);
-  EXPECT_EQ(drift[0].kind, ConvergenceEvent::Kind::kDrift);
+  t.Update(drifting, 1.0);
   EXPECT_EQ(t.state(), ConvergenceState::kDrifting);
-  EXPECT_TRUE(t.Update(drifting, 1.5).empty());  // reported once while it lasts
   StatisticEstimate few = Estimated(2.0, 0.001, 2000);
   few.effective_samples = 40;
   t.Update(few, 2.0);
@@ -74,6 +71,34 @@ TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet)
   t.Update(short_batches, 3.0);
   EXPECT_EQ(t.reason(), "batches are shorter than ten integrated times");
   EXPECT_EQ(t.consecutive(), 0);
+}
+
+TEST(ConvergenceTracker, DriftIsAnEventOnlyAfterASteadySpell) {
+  ConvergenceTracker t = OnePercent();
+  StatisticEstimate e = Estimated(2.0, 0.001, 1000);
+  e.drift_detected = true;  // the start-up: drifting from the first evaluation on
+  EXPECT_TRUE(t.Update(e, 1.0).empty());
+  e.samples_total = 2000;
+  EXPECT_TRUE(t.Update(e, 2.0).empty());
+  EXPECT_EQ(t.state(), ConvergenceState::kDrifting);
+  e.drift_detected = false;
+  for (int i = 3; i <= 5; ++i) {  // three steady evaluations, each with new samples
+    e.samples_total = 1000u * i;
+    const auto events = t.Update(e, i);
+    EXPECT_EQ(events.size(), i == 5 ? 1u : 0u);  // the third also meets the target
+  }
+  e.drift_detected = true;
+  e.samples_total = 6000;
+  const auto drift = t.Update(e, 6.0);
+  ASSERT_EQ(drift.size(), 2u);  // it was met, so it is lost too
+  EXPECT_EQ(drift[0].kind, ConvergenceEvent::Kind::kLost);
+  EXPECT_EQ(drift[1].kind, ConvergenceEvent::Kind::kDrift);
+  e.samples_total = 7000;
+  EXPECT_TRUE(t.Update(e, 7.0).empty());  // reported once while it lasts
+  // Restored from a checkpoint, the steady spell and the report survive.
+  ConvergenceTracker restored = OnePercent();
+  ASSERT_TRUE(restored.RestoreState(t.SaveState()));
+  EXPECT_TRUE(restored.Update(e, 8.0).empty());
 }
 
 TEST(ConvergenceTracker, WarmupFillingHalfTheDataIsWarmingUp) {

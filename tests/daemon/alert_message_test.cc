@@ -76,5 +76,27 @@ TEST(AlertMessage, StatisticEventsCarryValueAndEnvironment) {
   EXPECT_EQ(find("PLATEAU_EVENT_ID"), "7");
 }
 
+TEST(AlertMessage, DigestLeadsWithTheRunAndListsTheRestUpToALimit) {
+  std::vector<EventRow> events;
+  for (int i = 0; i < 60; ++i) {
+    EventRow e = RunMet();
+    e.kind = "met";
+    e.statistic = "line[" + std::to_string(i) + "]/U";
+    e.message = e.statistic + " met its target";
+    events.push_back(e);
+  }
+  events.insert(events.begin() + 30, RunMet());  // the important one arrives in the middle
+  const AlertMessage m = ComposeDigest(events, Ch420Run());
+  EXPECT_EQ(m.subject, "[plateau] ch420: every target met, the solver can stop (and 60 more events)");
+  EXPECT_EQ(m.body.find("every target of run ch420 is met"), 0u) << m.body;
+  EXPECT_NE(m.body.find("- line[0]/U met its target\n"), std::string::npos);
+  EXPECT_NE(m.body.find("- line[49]/U met its target\n"), std::string::npos);
+  EXPECT_EQ(m.body.find("line[50]/U"), std::string::npos);  // 50 lines at most
+  EXPECT_NE(m.body.find("- ... and 10 more"), std::string::npos);
+  // The footer stays last.
+  EXPECT_LT(m.body.find("- ... and 10 more"), m.body.find("\nRun ch420, store"));
+  EXPECT_EQ(ComposeDigest({RunMet()}, Ch420Run()).body, ComposeAlert(RunMet(), Ch420Run()).body);
+}
+
 }  // namespace
 }  // namespace plateau
