@@ -1,5 +1,6 @@
 #include "core/geweke_drift.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "core/autocorrelation.h"
@@ -8,21 +9,10 @@
 namespace plateau {
 namespace {
 
-struct PartMean {
-  double mean = 0.0;
-  double variance_of_mean = 0.0;
-};
-
-PartMean Summarise(const std::vector<double>& part) {
-  PartMean p;
-  for (double v : part) p.mean += v;
-  p.mean /= static_cast<double>(part.size());
-  double gamma0 = 0.0;
-  const double monotone = GeyerInitialMonotoneSigma2(part, &gamma0);
-  // A negative sequence sum (strong anticorrelation in a short part) falls back to independence.
-  const double sigma2 = monotone > 0.0 ? monotone : gamma0;
-  p.variance_of_mean = sigma2 / static_cast<double>(part.size());
-  return p;
+double Mean(std::vector<double>::const_iterator begin, std::vector<double>::const_iterator end) {
+  double sum = 0.0;
+  for (auto it = begin; it != end; ++it) sum += *it;
+  return sum / static_cast<double>(end - begin);
 }
 
 }  // namespace
@@ -34,13 +24,21 @@ DriftTest GewekeDrift(const std::vector<double>& series, double early_fraction,
   const auto early_count = static_cast<std::size_t>(early_fraction * static_cast<double>(n));
   const auto late_count = static_cast<std::size_t>(late_fraction * static_cast<double>(n));
   if (early_count < 20 || late_count < 20 || early_count + late_count > n) return test;
-  const PartMean early = Summarise({series.begin(), series.begin() + early_count});
-  const PartMean late = Summarise({series.end() - late_count, series.end()});
-  const double spread = std::sqrt(early.variance_of_mean + late.variance_of_mean);
+  const std::vector<double> late(series.end() - late_count, series.end());
+  double gamma0 = 0.0;
+  const double monotone = GeyerInitialMonotoneSigma2(late, &gamma0);
+  // A negative sequence sum (strong anticorrelation) falls back to independence.
+  const double sigma2 = monotone > 0.0 ? monotone : gamma0;
+  const double spread = std::sqrt(sigma2 / static_cast<double>(early_count) +
+                                  sigma2 / static_cast<double>(late_count));
   if (!(spread > 0.0)) return test;
   test.available = true;
-  test.z = (early.mean - late.mean) / spread;
-  test.p_value = TwoSidedNormalPValue(test.z);
+  test.z = (Mean(series.begin(), series.begin() + static_cast<std::ptrdiff_t>(early_count)) -
+            Mean(late.begin(), late.end())) /
+           spread;
+  // The variance estimate is itself uncertain: about one degree of freedom per effective sample.
+  test.degrees_of_freedom = std::max(1.0, static_cast<double>(late_count) * gamma0 / sigma2);
+  test.p_value = TwoSidedStudentPValue(test.z, test.degrees_of_freedom);
   return test;
 }
 

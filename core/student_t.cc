@@ -25,4 +25,11 @@ double TwoSidedNormalPValue(double z) {
                    boost::math::normal_distribution<double>(), std::fabs(z)));
 }
 
+double TwoSidedStudentPValue(double t, double degrees_of_freedom) {
+  if (std::isnan(t) || !(degrees_of_freedom > 0.0)) return std::numeric_limits<double>::quiet_NaN();
+  if (std::isinf(degrees_of_freedom)) return TwoSidedNormalPValue(t);
+  return 2.0 * boost::math::cdf(boost::math::complement(
+                   boost::math::students_t_distribution<double>(degrees_of_freedom), std::fabs(t)));
+}
+
 }  // namespace plateau

@@ -11,6 +11,9 @@ double TwoSidedStudentQuantile(double confidence, double degrees_of_freedom);
 // Two-sided p-value of a standard normal score: P(|Z| >= |z|).
 double TwoSidedNormalPValue(double z);
 
+// Two-sided p-value of a t score: P(|T| >= |t|) for T ~ t(degrees_of_freedom); NaN for dof <= 0.
+double TwoSidedStudentPValue(double t, double degrees_of_freedom);
+
 }  // namespace plateau
 
 #endif  // PLATEAU_CORE_STUDENT_T_H_
