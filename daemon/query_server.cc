@@ -37,6 +37,8 @@ LatestView MemoryView(const RunMonitor& monitor) {
   v.last_sample_time = r.last_sample_time;
   v.last_sample_wall_time = r.last_sample_wall_time;
   v.run_met = r.run_met;
+  v.remaining_time = r.remaining_time;
+  v.remaining_wall = r.remaining_wall;
   v.statistics = r.snapshots;
   v.files = r.files;
   return v;

@@ -263,7 +263,8 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
     SnapshotRow row;
     row.statistic = TextOr(s.Find("name"));
     if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
-    if (s.Find("points") != nullptr) row.target_kind = "profile";
+    // A profile's summaries: per quantity (with "points") and its momentum balance.
+    if (s.Find("points") != nullptr || s.Find("departure") != nullptr) row.target_kind = "profile";
     if (s.Find("point") != nullptr) row.profile = TextOr(s.Find("profile"));
     row.state = TextOr(s.Find("state"));
     row.state_reason = TextOr(s.Find("state_reason"));

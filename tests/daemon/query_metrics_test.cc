@@ -13,6 +13,7 @@
 #include <sstream>
 #include <thread>
 
+#include "daemon/json_value.h"
 #include "daemon/query_server.h"
 #include "tests/daemon/run_folder.h"
 
@@ -115,8 +116,9 @@ int FreePort() {
 class QueryAndMetrics : public testing::RunFolder {
  protected:
   std::string Socket() { return Path("plateau.db.sock"); }
-  void StartWithData(WatchDaemon*& daemon, const std::string& settings = "") {
-    WriteConfig("{relative: 0.01}", "", settings);
+  void StartWithData(WatchDaemon*& daemon, const std::string& settings = "",
+                     const std::string& target = "{relative: 0.01}") {
+    WriteConfig(target, "", settings);
     Append("run1/probe.dat", "# time x y\n" + ProbeRows(3000).Rows(0, 3000));
     daemon = new WatchDaemon(Path("run.yaml"), Path("watch.log"));
     ASSERT_TRUE(WaitFor([&] { return Samples() == 3000; }, 10));
@@ -142,6 +144,24 @@ TEST_F(QueryAndMetrics, SocketIsPrivateAndAnswersLineByLine) {
   // Through the commands: the daemon answers while it runs.
   const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
   EXPECT_NE(json.out.find("\"answered_by\":\"daemon\""), std::string::npos);
+}
+
+TEST_F(QueryAndMetrics, DaemonAndStoreGiveTheSameTimeToTarget) {
+  // The data stop after 3000 rows, so every cycle computes the same prediction; the daemon's
+  // answer (from memory) must equal the store's (a regression: memory once said 0, "reached").
+  WatchDaemon* daemon = nullptr;
+  StartWithData(daemon, "", "{relative: 0.002}");
+  std::unique_ptr<WatchDaemon> owner(daemon);
+  ASSERT_TRUE(WaitFor([&] { return Latest() && Latest()->cycle >= 3; }, 10));
+  std::string error;
+  const auto status = JsonValue::Parse(Exchange(Socket(), "{\"request\":\"status\"}\n"), &error);
+  ASSERT_TRUE(status.has_value()) << error;
+  const JsonValue* eta = status->Find("time_to_target");
+  ASSERT_NE(eta, nullptr);
+  ASSERT_TRUE(eta->is_object());
+  const double from_daemon = eta->Find("simulated")->number();
+  EXPECT_GT(from_daemon, 0.0);  // 3000 rows give about 0.7 %: far from a 0.2 % target
+  EXPECT_NEAR(from_daemon, Latest()->remaining_time, 1e-9 * from_daemon);
 }
 
 TEST_F(QueryAndMetrics, MalformedUnknownAndOversizedRequestsGetAnErrorObject) {
