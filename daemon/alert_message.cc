@@ -10,22 +10,6 @@
 namespace plateau {
 namespace {
 
-std::string Utc(double wall) {
-  if (std::isnan(wall)) return "-";
-  const std::time_t t = static_cast<std::time_t>(wall);
-  std::tm tm{};
-  gmtime_r(&t, &tm);
-  char buffer[32];
-  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
-  return buffer;
-}
-
-std::string Hours(double seconds) {
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.1f h", seconds / 3600.0);
-  return buffer;
-}
-
 std::string Headline(const EventRow& e, const RunConfig& c) {
   if (e.kind == "run_met") return c.run_name + ": every target met, the solver can stop";
   if (e.kind == "run_lost") return c.run_name + ": targets no longer all met";
@@ -81,9 +65,9 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
          (e.target.empty() ? "" : " (target half-width " + e.target + ")") + "\n";
   }
   b += "Simulated time: " + FormatValue(e.simulated_time) + "; wall-clock time: " +
-       Utc(e.wall_time) + "\n";
+       FormatUtcTime(e.wall_time) + "\n";
   if (!std::isnan(e.elapsed_wall)) {
-    b += "Followed by plateau for " + Hours(e.elapsed_wall) + " since its first sample.\n";
+    b += "Followed by plateau for " + FormatDuration(e.elapsed_wall) + " since its first sample.\n";
   }
   const double remaining = c.planned_end_time - e.simulated_time;
   if ((e.kind == "run_met" || e.kind == "met") && std::isfinite(remaining) && remaining > 0 &&
@@ -91,14 +75,14 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
     const double hours = remaining / e.progress_rate;
     b += "The run was planned to reach time " + FormatValue(c.planned_end_time) + "; at the " +
          "observed " + FormatValue(e.progress_rate) + " time units per hour that is " +
-         Hours(hours * 3600.0) + " more on " + FormatValue(c.cores) +
+         FormatDuration(hours * 3600.0) + " more on " + FormatValue(c.cores) +
          " cores: stopping now saves about " + FormatValue(std::round(hours * c.cores)) +
          " core-hours.\n";
   }
   if (e.kind != "run_met" && std::isfinite(e.remaining_time) && e.remaining_time > 0) {
     b += "Every target is expected to be met after " + FormatValue(e.remaining_time) +
          " more time units" +
-         (e.progress_rate > 0 ? " (about " + Hours(e.remaining_time / e.progress_rate * 3600.0) +
+         (e.progress_rate > 0 ? " (about " + FormatDuration(e.remaining_time / e.progress_rate * 3600.0) +
                                     " at the observed rate)"
                               : "") +
          ".\n";
@@ -117,7 +101,7 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
       {"PLATEAU_CONFIDENCE", std::isnan(e.confidence) ? "" : FormatValue(e.confidence)},
       {"PLATEAU_TARGET", e.target},
       {"PLATEAU_SIMULATED_TIME", FormatValue(e.simulated_time)},
-      {"PLATEAU_WALL_TIME", Utc(e.wall_time)},
+      {"PLATEAU_WALL_TIME", FormatUtcTime(e.wall_time)},
   };
   return m;
 }

@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <ctime>
 
 #include "daemon/text_table.h"
 
@@ -100,6 +101,24 @@ std::string FormatPercent(double fraction) {
   if (std::isnan(fraction)) return "-";
   // Past 100 % the interval includes zero: the relative width of a near-zero mean says nothing.
   return fraction > 1.0 ? ">100 %" : Printf("%.3g", 100.0 * fraction) + " %";
+}
+
+std::string FormatDuration(double seconds) {
+  if (std::isnan(seconds)) return "-";
+  if (seconds < 120) return Printf("%.0f s", seconds);
+  if (seconds < 7200) return Printf("%.1f min", seconds / 60);
+  if (seconds < 172800) return Printf("%.1f h", seconds / 3600);
+  return Printf("%.1f d", seconds / 86400);
+}
+
+std::string FormatUtcTime(double wall) {
+  if (std::isnan(wall)) return "-";
+  const std::time_t t = static_cast<std::time_t>(wall);
+  std::tm tm{};
+  gmtime_r(&t, &tm);
+  char buffer[32];
+  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
+  return buffer;
 }
 
 void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,

@@ -26,6 +26,10 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
 std::string FormatValue(double value);
 std::string FormatHalfWidth(double value);
 std::string FormatPercent(double fraction);
+// A span of wall-clock seconds as "45 s", "3.5 min", "2.1 h" or "1.5 d"; "-" when NaN.
+std::string FormatDuration(double seconds);
+// Wall-clock seconds since the epoch as "2026-12-02 10:15:00 UTC"; "-" when NaN.
+std::string FormatUtcTime(double wall);
 
 }  // namespace plateau
 

@@ -46,16 +46,6 @@ text.legend.slope { fill: #777; }
 
 std::string Html(const std::string& text) { return SvgPlot::Escape(text); }
 
-std::string Utc(double wall) {
-  if (std::isnan(wall)) return "-";
-  const std::time_t t = static_cast<std::time_t>(wall);
-  std::tm tm{};
-  gmtime_r(&t, &tm);
-  char buffer[32];
-  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
-  return buffer;
-}
-
 double NumberOf(const JsonValue* v) {
   return v != nullptr && v->type() == JsonValue::Type::kNumber ? v->number() : std::nan("");
 }
@@ -253,7 +243,7 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
                      "plateau report: " + Html(latest->run_name) + "</title><style>" + kStyle +
                      "</style></head><body>";
   html += "<h1>plateau report: " + Html(latest->run_name) + "</h1><p>Cycle " +
-          std::to_string(latest->cycle) + ", evaluated " + Utc(latest->wall_time) +
+          std::to_string(latest->cycle) + ", evaluated " + FormatUtcTime(latest->wall_time) +
           "; newest sample at simulated time " + Html(FormatValue(latest->last_sample_time)) +
           ". " + (latest->run_met ? "<b>Every target is met: the solver can stop.</b>"
                                   : "Not every target is met yet.") +

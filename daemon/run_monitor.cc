@@ -238,8 +238,8 @@ void RunMonitor::WatchInput(const CycleRecord& record, double wall_time,
     stalled_ = true;
     events.push_back(MakeEvent(
         "stalled", "",
-        "no new sample for " + FormatValue((wall_time - last_sample_wall_) / 60.0) +
-            " min (the newest has time " + FormatValue(record.last_sample_time) +
+        "no new sample for " + FormatDuration(wall_time - last_sample_wall_) +
+            " (the newest has time " + FormatValue(record.last_sample_time) +
             "): has the solver stopped, crashed or hung?",
         record.last_sample_time, wall_time));
   }

@@ -14,31 +14,6 @@ namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-std::string Ago(double seconds) {
-  if (std::isnan(seconds)) return "-";
-  char buffer[32];
-  if (seconds < 120) {
-    std::snprintf(buffer, sizeof buffer, "%.0f s", seconds);
-  } else if (seconds < 7200) {
-    std::snprintf(buffer, sizeof buffer, "%.1f min", seconds / 60);
-  } else if (seconds < 172800) {
-    std::snprintf(buffer, sizeof buffer, "%.1f h", seconds / 3600);
-  } else {
-    std::snprintf(buffer, sizeof buffer, "%.1f d", seconds / 86400);
-  }
-  return buffer;
-}
-
-std::string UtcTime(double wall) {
-  if (std::isnan(wall)) return "-";
-  const std::time_t t = static_cast<std::time_t>(wall);
-  std::tm tm{};
-  gmtime_r(&t, &tm);
-  char buffer[32];
-  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
-  return buffer;
-}
-
 std::string StateWords(const std::string& state) {
   std::string words = state;
   for (char& c : words) c = c == '_' ? ' ' : c;
@@ -53,7 +28,7 @@ std::string TargetCell(const SnapshotRow& s) {
 std::string DaemonLine(const StatusContext& c, double age) {
   if (c.daemon_pid > 0) return "the daemon is running (process " + std::to_string(c.daemon_pid) + ")";
   if (c.daemon_pid < 0) return "the daemon is running";
-  return "the daemon is not running: these numbers are " + Ago(age) + " old";
+  return "the daemon is not running: these numbers are " + FormatDuration(age) + " old";
 }
 
 struct Tally {
@@ -74,7 +49,7 @@ std::string Prediction(double simulated, double wall_seconds, double now) {
   std::snprintf(figure, sizeof figure, "%.3g", simulated);
   std::string text = std::string(figure) + " time units";
   if (!std::isnan(wall_seconds)) {
-    text += " (about " + Ago(wall_seconds) + ", at " + UtcTime(now + wall_seconds) + ")";
+    text += " (about " + FormatDuration(wall_seconds) + ", at " + FormatUtcTime(now + wall_seconds) + ")";
   }
   return text;
 }
@@ -106,10 +81,10 @@ std::string TextOr(const JsonValue* v) {
 
 std::string StatusTable(const LatestView& v, const StatusContext& c) {
   std::string out = "run '" + v.run_name + "': cycle " + std::to_string(v.cycle) + ", evaluated " +
-                    Ago(c.now - v.wall_time) + " ago (" + UtcTime(v.wall_time) + "); " +
+                    FormatDuration(c.now - v.wall_time) + " ago (" + FormatUtcTime(v.wall_time) + "); " +
                     DaemonLine(c, c.now - v.wall_time) + "\n";
   out += "newest sample: time " + FormatValue(v.last_sample_time) + ", read " +
-         Ago(c.now - v.last_sample_wall_time) + " ago\n\n";
+         FormatDuration(c.now - v.last_sample_wall_time) + " ago\n\n";
   using A = TextTable::Align;
   TextTable table({{"statistic", A::kLeft},
                    {"value", A::kRight},
@@ -160,6 +135,9 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     out += std::to_string(t.met) + " of " + std::to_string(t.targets) + " targets met: continue; " +
            (v.remaining_time == 0.0
                 ? std::string("every half-width is within its target, waiting for confirmations")
+            : std::isnan(v.remaining_time)
+                ? std::string("no prediction yet of when every target is met (a statistic "
+                              "drifts or has too few samples to extrapolate)")
                 : "every target is expected to be met after " +
                       Prediction(v.remaining_time, v.remaining_wall, c.now)) +
            "\n";
@@ -314,7 +292,7 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
 
 CheckAnswer Check(const LatestView& v, const StatusContext& c, const std::string& stat) {
   const std::string when = " (cycle " + std::to_string(v.cycle) + ", evaluated " +
-                           Ago(c.now - v.wall_time) + " ago" +
+                           FormatDuration(c.now - v.wall_time) + " ago" +
                            (c.daemon_pid == 0 ? "; the daemon is not running" : "") + ")";
   if (!stat.empty()) {
     for (const SnapshotRow& s : v.statistics) {
