@@ -1,0 +1,32 @@
+// libFuzzer target for the query socket's request parser (daemon/query_request, on JsonValue):
+// whatever arrives on the socket, it returns a request or an error message, never crashes, never
+// recurses without bound. A request without an error, or an error without a message, aborts.
+#include <cstdint>
+#include <cstdio>
+#include <cstdlib>
+#include <string>
+#include <string_view>
+
+#include "daemon/query_request.h"
+#include "tests/fuzz/fuzz_checks.h"
+
+namespace plateau::fuzz {
+
+int QueryRequestOneInput(const std::uint8_t* data, std::size_t size) {
+  const std::string_view line(reinterpret_cast<const char*>(data), size);
+  std::string error;
+  const auto request = plateau::ParseQueryRequest(line, &error);
+  if (!request && error.empty()) {
+    std::fprintf(stderr, "query request refused without a reason\n");
+    std::abort();
+  }
+  return 0;
+}
+
+}  // namespace plateau::fuzz
+
+#ifdef PLATEAU_LIBFUZZER
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+  return plateau::fuzz::QueryRequestOneInput(data, size);
+}
+#endif
