@@ -840,7 +840,7 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
     Error(root, "the query socket path " + c.socket_path + " is longer than 107 bytes; set "
                 "socket: to a shorter path");
   }
-  if (c.blocks < static_cast<std::size_t>(4 * c.evaluation.batches)) {
+  if (c.blocks < 4 * static_cast<std::size_t>(c.evaluation.batches)) {
     Error(root, "blocks must be at least four times batches");
   }
   if (!errors_->empty()) return std::nullopt;

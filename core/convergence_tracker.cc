@@ -43,7 +43,7 @@ std::string_view ConvergenceStateName(ConvergenceState state) {
 }
 
 ConvergenceTracker::ConvergenceTracker(std::string statistic, std::optional<Target> target,
-                                       StopRuleSettings settings)
+                                       const StopRuleSettings& settings)
     : statistic_(std::move(statistic)),
       target_(target),
       settings_(settings),
@@ -149,7 +149,8 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
   return events;
 }
 
-void ConvergenceTracker::Retarget(std::optional<Target> target, StopRuleSettings settings) {
+void ConvergenceTracker::Retarget(std::optional<Target> target,
+                                  const StopRuleSettings& settings) {
   target_ = target;
   settings_ = settings;
   consecutive_ = 0;

@@ -57,7 +57,7 @@ class ConvergenceTracker {
   static constexpr double kWarmupStillGoing = 0.45;
 
   ConvergenceTracker(std::string statistic, std::optional<Target> target,
-                     StopRuleSettings settings);
+                     const StopRuleSettings& settings);
 
   // Takes one evaluation; returns the events it causes (met, lost, drift), in that order. A drift
   // event needs `confirmations` drift-free evaluations before it: start-up drift is no event. Only an evaluation with new samples counts as a confirmation: re-evaluating a paused run
@@ -76,7 +76,7 @@ class ConvergenceTracker {
   double TargetHalfWidth(double value) const;
 
   // Replaces target and settings (a reloaded config); the count of confirmations restarts.
-  void Retarget(std::optional<Target> target, StopRuleSettings settings);
+  void Retarget(std::optional<Target> target, const StopRuleSettings& settings);
 
   std::vector<double> SaveState() const;
   bool RestoreState(const std::vector<double>& state);

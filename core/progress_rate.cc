@@ -12,6 +12,10 @@ void ProgressRate::Add(double wall_seconds, double simulated_time) {
   if (points_.size() > kWindow) points_.pop_front();
 }
 
+void ProgressRate::Shift(double seconds) {
+  for (auto& point : points_) point.first += seconds;
+}
+
 double ProgressRate::PerHour() const {
   if (points_.size() < 2) return std::numeric_limits<double>::quiet_NaN();
   const double wall = points_.back().first - points_.front().first;

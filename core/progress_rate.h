@@ -19,6 +19,8 @@ class ProgressRate {
   void Add(double wall_seconds, double simulated_time);
   // Forget the window (after a catch-up).
   void Restart() { points_.clear(); }
+  // The wall clock jumped by `seconds`: the window's wall times move with it.
+  void Shift(double seconds);
   // Simulated time per wall-clock hour; NaN with fewer than two points or under a second apart.
   double PerHour() const;
 

@@ -61,6 +61,7 @@ std::optional<SourceStatistics> SourceStatistics::Make(
     std::vector<int> positions;
     std::string problem = resolve(request.columns, &positions);
     std::vector<std::string> names;
+    names.reserve(positions.size());
     for (int p : positions) names.push_back(source.columns_[p]);
     const std::string name =
         request.name.empty() ? DefaultStatisticName(request.kind, names) : request.name;

@@ -126,6 +126,7 @@ std::vector<double> Statistic::LinearisedSeries(int cut, const std::vector<doubl
   std::array<double, MomentLayout::kMaxSignals> centre{};
   for (int i = 0; i < layout.signals(); ++i) centre[i] = layout.Mean(global.data(), i);
   std::vector<double> global_moment;
+  global_moment.reserve(terms.size());
   for (const WeightedMoment& t : terms) {
     global_moment.push_back(layout.CentralMoment(global.data(), t.alpha));
   }

@@ -76,9 +76,10 @@ void AlertDispatcher::DispatchDue() {
 // not send forty messages. Each delivery is recorded on its own, with the one result.
 void AlertDispatcher::DeliverMail(std::vector<DeliveryRow> due) {
   std::vector<EventRow> events;
+  events.reserve(due.size());
   for (const DeliveryRow& d : due) events.push_back(d.event);
   SendAlertMail(io_, *monitor_.config().alerts.email, ComposeDigest(events, monitor_.config()),
-                [this, due = std::move(due)](Status result) {
+                [this, due = std::move(due)](const Status& result) {
                   for (const DeliveryRow& d : due) Finish(d, result);
                 });
 }
@@ -88,7 +89,7 @@ void AlertDispatcher::Deliver(const DeliveryRow& d) {
   const AlertMessage message = ComposeAlert(d.event, config);
   if (d.channel == "command" && config.alerts.command) {
     RunAlertCommand(io_, *config.alerts.command, message.environment,
-                    [this, d](CommandResult result) {
+                    [this, d](const CommandResult& result) {
                       log_->info("alert command for event {} ({}): {}{}", d.event.id, d.event.kind,
                                  result.status.ok() ? "exit status 0" : result.status.message(),
                                  result.output.empty() ? "" : "; output: " + FirstLines(result.output));

@@ -134,7 +134,7 @@ std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
     *error = "no probe file given (see plateau analyze --help)";
     return std::nullopt;
   }
-  if (o.capacity < static_cast<std::size_t>(4 * o.evaluation.batches)) {
+  if (o.capacity < 4 * static_cast<std::size_t>(o.evaluation.batches)) {
     *error = "--blocks must be at least four times --batches";
     return std::nullopt;
   }

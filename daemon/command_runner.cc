@@ -116,10 +116,12 @@ void RunAlertCommand(asio::io_context& io, const CommandConfig& config,
   }
   for (const auto& [key, value] : environment) env_text.push_back(key + "=" + value);
   std::vector<char*> envp;
+  envp.reserve(env_text.size() + 1);
   for (std::string& e : env_text) envp.push_back(e.data());
   envp.push_back(nullptr);
   std::vector<std::string> args = config.argv;
   std::vector<char*> argv;
+  argv.reserve(args.size() + 1);
   for (std::string& a : args) argv.push_back(a.data());
   argv.push_back(nullptr);
 

@@ -65,7 +65,8 @@ SnapshotRow DerivedRow(const StatisticEstimate& e, const std::string& derived_fr
 
 }  // namespace
 
-ProfileSummaries::ProfileSummaries(const RunConfig& config, std::shared_ptr<spdlog::logger> log)
+ProfileSummaries::ProfileSummaries(const RunConfig& config,
+                                   const std::shared_ptr<spdlog::logger>& log)
     : config_(config) {
   for (const ProfileConfig& p : config_.profiles) {
     for (const auto& [quantity, path] : p.references) {

@@ -30,7 +30,7 @@ class ProfileSummaries {
   };
 
   // Reads the profiles' reference tables; a table that cannot be read is logged and left out.
-  ProfileSummaries(const RunConfig& config, std::shared_ptr<spdlog::logger> log);
+  ProfileSummaries(const RunConfig& config, const std::shared_ptr<spdlog::logger>& log);
 
   // The u_tau and Re_tau rows (with wall units), then a row per profile and quantity, then a
   // momentum-balance row per profile that asks for one.

@@ -103,6 +103,7 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonValue* json,
   if (!averaged.empty() && averaged.back() > 0 && half.back() > 0) {
     // The 1/sqrt(T) law through the newest point, over the plotted range.
     std::vector<double> law;
+    law.reserve(averaged.size());
     for (double a : averaged) law.push_back(half.back() * std::sqrt(averaged.back() / a));
     shrink.Line(averaged, law, "slope", "1/sqrt(T)");
   }

@@ -326,6 +326,14 @@ std::string RunMonitor::Reload(const RunConfig& fresh) {
                        "statistics changed too, which takes a restart of plateau watch";
 }
 
+void RunMonitor::ShiftWallClock(double seconds) {
+  first_sample_wall_ += seconds;
+  last_sample_wall_ += seconds;
+  bad_lines_since_ += seconds;
+  rate_.Shift(seconds);
+  for (auto& tail : tails_) tail->ShiftWallClock(seconds);
+}
+
 bool RunMonitor::Poll(double wall_time) {
   bool more = false;
   for (auto& tail : tails_) more = tail->Poll(wall_time) || more;
@@ -560,7 +568,7 @@ Status RunMonitor::Evaluate(double wall_time) {
   record.checkpoint["run"] = {run_met_ ? 1.0 : 0.0, stalled_ ? 1.0 : 0.0, first_sample_wall_,
                               last_sample_wall_, bad_lines_alarm_ ? 1.0 : 0.0};
 
-  const Status status = store_->WriteCycle(record);
+  Status status = store_->WriteCycle(record);
   if (!status.ok()) {
     log_->error("cannot record cycle {}: {}; the state is kept in memory and written at the "
                 "next evaluation",

@@ -37,6 +37,10 @@ class RunMonitor {
   // The loop is reading a backlog: what follows says nothing about the solver's speed or its
   // bad-line rate, so both measurements start again.
   void NoteCatchUp();
+  // The system clock jumped by `seconds` (an NTP step, a suspended machine): every wall time held
+  // for measuring durations (stall, progress rate, bad-line rate) moves with it. Recorded stamps
+  // stay as they were.
+  void ShiftWallClock(double seconds);
 
   bool run_met() const { return run_met_; }
   RunStore& store() { return *store_; }

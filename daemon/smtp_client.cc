@@ -94,7 +94,7 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
         self->socket_.close(ignored);
       }
     });
-    asio::co_spawn(io_, Talk(), [self = shared_from_this()](std::exception_ptr failure) {
+    asio::co_spawn(io_, Talk(), [self = shared_from_this()](const std::exception_ptr& failure) {
       self->deadline_.cancel();
       self->done_(self->Outcome(failure));
     });
@@ -103,7 +103,7 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
  private:
   std::string Where() const { return "smtp " + config_.host + ":" + std::to_string(config_.port); }
 
-  Status Outcome(std::exception_ptr failure) const {
+  Status Outcome(const std::exception_ptr& failure) const {
     if (!failure) return Status::Ok();
     try {
       std::rethrow_exception(failure);
@@ -130,10 +130,12 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
   asio::awaitable<std::string> Expect(int expected) {
     std::string reply;
     while (true) {
-      std::size_t n = tls_ ? co_await asio::async_read_until(*tls_, buffer_, "\r\n",
-                                                             asio::use_awaitable)
-                           : co_await asio::async_read_until(socket_, buffer_, "\r\n",
-                                                             asio::use_awaitable);
+      std::size_t n = 0;
+      if (tls_) {
+        n = co_await asio::async_read_until(*tls_, buffer_, "\r\n", asio::use_awaitable);
+      } else {
+        n = co_await asio::async_read_until(socket_, buffer_, "\r\n", asio::use_awaitable);
+      }
       std::string line(asio::buffers_begin(buffer_.data()),
                        asio::buffers_begin(buffer_.data()) + static_cast<std::ptrdiff_t>(n));
       buffer_.consume(n);

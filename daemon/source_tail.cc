@@ -42,12 +42,13 @@ std::string FixedFolder(const std::string& pattern) {
 
 constexpr std::uint64_t kSignatureBytes = 64;
 
-// The up to 64 bytes that end at `offset`; empty when the file cannot be read there.
-std::string SignatureAt(const std::string& path, std::uint64_t offset) {
+// The up to 64 bytes that end at `offset`; empty when the file is shorter; nullopt when it cannot
+// be opened (unreadable for now: that says nothing about its content).
+std::optional<std::string> SignatureAt(const std::string& path, std::uint64_t offset) {
   const std::uint64_t start = offset > kSignatureBytes ? offset - kSignatureBytes : 0;
   std::string bytes(offset - start, '\0');
   const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
-  if (fd < 0) return "";
+  if (fd < 0) return std::nullopt;
   const ssize_t n = ::pread(fd, bytes.data(), bytes.size(), static_cast<off_t>(start));
   ::close(fd);
   return n == static_cast<ssize_t>(bytes.size()) ? bytes : "";
@@ -182,6 +183,8 @@ double SourceTail::last_sample_time() const {
   return std::isinf(t) ? std::numeric_limits<double>::quiet_NaN() : t;
 }
 
+void SourceTail::ShiftWallClock(double seconds) { last_sample_wall_time_ += seconds; }
+
 std::uint64_t SourceTail::bad_lines() const {
   std::uint64_t total = 0;
   for (const TrackedFile& f : files_) total += f.parser.bad_lines();
@@ -223,8 +226,11 @@ bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
   const std::uint64_t read_to = file.parser.consumed_bytes() + file.parser.pending_bytes();
   const bool replaced = inode != file.inode || file.vanished;
   const bool truncated = *size < read_to;
-  const bool rewritten = !replaced && !truncated && !file.signature.empty() &&
-                         SignatureAt(file.path, file.parser.consumed_bytes()) != file.signature;
+  bool rewritten = false;
+  if (!replaced && !truncated && !file.signature.empty()) {
+    const std::optional<std::string> now = SignatureAt(file.path, file.parser.consumed_bytes());
+    rewritten = now && *now != file.signature;
+  }
   if (replaced || truncated || rewritten) {
     log_->warn("{} was {} (size {} bytes, {} read); reading it again from the start: samples "
                "already recorded are skipped by time",
@@ -252,10 +258,20 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
     return file.parser.consumed_bytes() - start < kBytesPerPoll && !file.layout_mismatch;
   });
   if (!read.ok) {
-    log_->warn("{}; will try again at the next poll", read.error);
+    // Once per spell, not once per poll: a file unreadable for a day must not fill the log.
+    if (!file.unreadable) {
+      log_->warn("{}; the {} samples read from it are kept, and reading resumes from byte {} "
+                 "when it can be read again",
+                 read.error, file.parser.rows(), file.parser.consumed_bytes());
+    }
+    file.unreadable = true;
     return false;
   }
-  file.signature = SignatureAt(file.path, file.parser.consumed_bytes());
+  if (file.unreadable) {
+    log_->info("{} can be read again; reading on from byte {}", file.path, from);
+    file.unreadable = false;
+  }
+  file.signature = SignatureAt(file.path, file.parser.consumed_bytes()).value_or("");
   const std::uint64_t unreported = file.parser.bad_lines() - file.bad_lines_reported;
   if (unreported > 0 && file.bad_lines_logged >= kBadLinesLoggedPerFile) {
     log_->warn("{}: {} more bad lines skipped ({} in all)", file.path, unreported,

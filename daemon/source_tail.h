@@ -45,6 +45,9 @@ class SourceTail {
   const Statistic* Find(const std::string& statistic_name) const;
   double last_sample_time() const;
   double last_sample_wall_time() const { return last_sample_wall_time_; }
+  // The system clock jumped by `seconds`: wall times held here move with it, so that durations
+  // measured against the new clock stay true.
+  void ShiftWallClock(double seconds);
   // Bad lines skipped in all of the source's files so far.
   std::uint64_t bad_lines() const;
   // Folders worth an inotify watch: the fixed part of the glob and every folder with a file.
@@ -63,6 +66,7 @@ class SourceTail {
     double first_time = std::numeric_limits<double>::quiet_NaN();
     double last_time = std::numeric_limits<double>::quiet_NaN();
     bool vanished = false;
+    bool unreadable = false;  // the last read failed (permissions, I/O error); logged once
     bool layout_mismatch = false;  // columns differ from the source's: the file is ignored
     std::uint64_t bad_lines_logged = 0;
     std::uint64_t bad_lines_reported = 0;

@@ -28,7 +28,9 @@ std::string Tick(double v) {
 std::vector<double> Ticks(double low, double high, bool log) {
   std::vector<double> ticks;
   if (log) {
-    for (double d = std::floor(std::log10(low)); d <= std::ceil(std::log10(high)); d += 1) {
+    const int first = static_cast<int>(std::floor(std::log10(low)));
+    const int last = static_cast<int>(std::ceil(std::log10(high)));
+    for (int d = first; d <= last; ++d) {
       for (double m : {1.0, 2.0, 5.0}) {
         const double v = m * std::pow(10.0, d);
         if (v >= low * 0.999 && v <= high * 1.001) ticks.push_back(v);
@@ -50,7 +52,10 @@ std::vector<double> Ticks(double low, double high, bool log) {
       break;
     }
   }
-  for (double v = std::ceil(low / step) * step; v <= high + 1e-9 * step; v += step) {
+  // Counted in steps, not accumulated, so that rounding cannot add or lose a tick.
+  const double first = std::ceil(low / step);
+  for (int i = 0; (first + i) * step <= high + 1e-9 * step; ++i) {
+    const double v = (first + i) * step;
     ticks.push_back(std::fabs(v) < 1e-12 * step ? 0.0 : v);
   }
   return ticks;

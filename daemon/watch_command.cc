@@ -38,7 +38,8 @@ options:
   --poll-every SECONDS       file polling interval (overrides poll_every)
   --quiet                    log to the run's log file only, not to stderr
 
-exit status: 0 after a clean stop; 2 when it cannot start (the reason is on stderr).
+exit status: 0 after a clean stop; 2 when it cannot start; 3 when its store was deleted or moved
+while it ran (the reason is on stderr either way).
 )";
 }
 
@@ -108,6 +109,8 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
   monitor.Restore();
   WatchLoop loop(monitor, poll_every, evaluate_every, log);
   const int code = loop.Run();
+  // The log file may have gone with the run folder: say why on stderr too.
+  if (!loop.stop_reason().empty()) err << "plateau watch: " << loop.stop_reason() << "\n";
   log->info("stopped after cycle {}", monitor.cycle());
   return code;
 }

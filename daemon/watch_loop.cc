@@ -4,15 +4,20 @@
 #include <unistd.h>
 
 #include <chrono>
+#include <cmath>
 #include <csignal>
 #include <cstring>
 
 #include "config/config_loader.h"
+#include "daemon/analysis_report.h"
 
 namespace plateau {
 namespace {
 
 constexpr double kInotifyDelay = 0.1;  // seconds: let a burst of writes settle before reading
+// Between two readings the system clock may run off the steady clock by NTP's slewing (well under
+// a second per minute); more than this is a step of the clock.
+constexpr double kClockJumpSeconds = 2.0;
 
 std::chrono::steady_clock::duration Seconds(double s) {
   return std::chrono::duration_cast<std::chrono::steady_clock::duration>(
@@ -64,13 +69,13 @@ std::string WatchLoop::Reload() {
   std::vector<ConfigError> errors;
   const std::optional<RunConfig> fresh = LoadRunConfig(monitor_.config().config_path, &errors);
   if (!fresh) {
-    const std::string message = "config reload failed (" + std::to_string(errors.size()) +
+    std::string message = "config reload failed (" + std::to_string(errors.size()) +
                                 " problems, the first: " + errors.front().ToString() +
                                 "); the current config stays";
     log_->error("{}", message);
     return message;
   }
-  const std::string message = monitor_.Reload(*fresh);
+  std::string message = monitor_.Reload(*fresh);
   poll_seconds_ = poll_override_.value_or(monitor_.config().poll_every);
   evaluate_seconds_ = evaluate_override_.value_or(monitor_.config().evaluate_every);
   ScheduleEvaluation();
@@ -87,9 +92,39 @@ void WatchLoop::WaitForHangUp() {
   });
 }
 
+double WatchLoop::Now() {
+  const double wall = WallSeconds();
+  const auto steady = std::chrono::steady_clock::now();
+  if (last_wall_ > 0.0) {
+    const double jump =
+        (wall - last_wall_) - std::chrono::duration<double>(steady - last_steady_).count();
+    if (std::fabs(jump) > kClockJumpSeconds) {
+      log_->warn("the system clock jumped {} by {}; durations (stall, progress rate) are measured "
+                 "across the jump, and recorded times follow the new clock",
+                 jump > 0 ? "forward" : "back", FormatDuration(std::fabs(jump)));
+      monitor_.ShiftWallClock(jump);
+    }
+  }
+  last_wall_ = wall;
+  last_steady_ = steady;
+  return wall;
+}
+
 void WatchLoop::Evaluate() {
   // Alerts go out right after the cycle that recorded their events.
-  if (monitor_.Evaluate(WallSeconds()).ok()) alerts_.DispatchDue();
+  if (monitor_.Evaluate(Now()).ok()) alerts_.DispatchDue();
+  // Writing on into a deleted file would lose every cycle from now on without a word. A moved
+  // store has just received this cycle where it went; either way this daemon's place is gone.
+  if (monitor_.store().HasMoved()) {
+    stop_reason_ = "the store " + monitor_.store().path() +
+                   " was deleted, moved or replaced while plateau ran (was the run folder "
+                   "removed?); stopping after cycle " + std::to_string(monitor_.cycle()) +
+                   ", which went to the moved file if it still exists. Start plateau watch "
+                   "again to go on with a new store";
+    log_->error("{}", stop_reason_);
+    exit_code_ = 3;
+    io_.stop();
+  }
 }
 
 WatchLoop::~WatchLoop() = default;
@@ -145,7 +180,7 @@ void WatchLoop::SchedulePoll(double seconds) {
 }
 
 void WatchLoop::PollNow() {
-  const bool more = monitor_.Poll(WallSeconds());
+  const bool more = monitor_.Poll(Now());
   WatchNewFolders();
   // A capped read means gigabytes of catch-up: continue at once, but through the loop, so that
   // signals and evaluations get their turn between slices. When the backlog is read, evaluate at
@@ -177,7 +212,7 @@ void WatchLoop::Stop(int signal) {
   // stays unread; the checkpoint's offsets say where to resume.
   log_->info("{}: writing a final cycle and stopping", signal == SIGINT ? "SIGINT" : "SIGTERM");
   // Alerts of this last cycle stay pending in the store: the next daemon sends them.
-  if (!monitor_.Evaluate(WallSeconds()).ok()) {
+  if (!monitor_.Evaluate(Now()).ok()) {
     log_->error("the final cycle could not be written; the last recorded cycle ({}) stands",
                 monitor_.cycle());
   }

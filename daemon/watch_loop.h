@@ -33,8 +33,10 @@ class WatchLoop {
             std::optional<double> evaluate_override, std::shared_ptr<spdlog::logger> log);
   ~WatchLoop();
 
-  // Runs until SIGINT or SIGTERM; returns the process exit code (0 after a clean stop).
+  // Runs until SIGINT or SIGTERM; returns the process exit code (0 after a clean stop, 3 when
+  // the store vanished under it: stop_reason() says what happened).
   int Run();
+  const std::string& stop_reason() const { return stop_reason_; }
 
  private:
   void StartInotify();
@@ -49,6 +51,9 @@ class WatchLoop {
   std::string Reload();
 
   void Evaluate();
+  // The system clock's time, after checking it against the steady clock: a jump of more than
+  // kClockJumpSeconds since the last call is logged and passed to the monitor.
+  double Now();
 
   RunMonitor& monitor_;
   std::optional<double> poll_override_;
@@ -71,6 +76,9 @@ class WatchLoop {
   bool catching_up_ = false;  // a backlog is being read in capped slices
   std::chrono::steady_clock::time_point catch_up_start_;
   int exit_code_ = 0;
+  std::string stop_reason_;
+  double last_wall_ = 0.0;  // Now()'s previous reading of both clocks; 0: none yet
+  std::chrono::steady_clock::time_point last_steady_;
 };
 
 // Seconds since the epoch, the wall-clock time stamped on cycles and events.

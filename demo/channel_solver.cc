@@ -11,6 +11,7 @@
 // when DIR/STOP appears (as many solvers do), at --duration simulated seconds, or on SIGTERM.
 #include <atomic>
 #include <chrono>
+#include <cmath>
 #include <csignal>
 #include <cstdio>
 #include <cstdlib>
@@ -90,7 +91,8 @@ void WriteReference(const std::filesystem::path& path) {
   if (f == nullptr) Usage("cannot write " + path.string());
   std::fprintf(f, "# Reichardt's law of the wall (Reichardt 1951; kappa 0.41, C 7.8)\n"
                   "# y+ U+\n");
-  for (double y = 0.5; y <= kReTau; y *= 1.05) {
+  for (int i = 0; 0.5 * std::pow(1.05, i) <= kReTau; ++i) {
+    const double y = 0.5 * std::pow(1.05, i);
     std::fprintf(f, "%.4f %.5f\n", y, ChannelProfileModel::ReichardtPlus(y));
   }
   std::fclose(f);

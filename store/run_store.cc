@@ -2,6 +2,8 @@
 
 #include <array>
 #include <cmath>
+#include <csignal>
+#include <cstdlib>
 
 namespace plateau {
 namespace {
@@ -122,6 +124,9 @@ std::unique_ptr<RunStore> RunStore::OpenForWriting(const std::string& path,
   *status = connection->Execute("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;");
   if (!status->ok()) return nullptr;
   std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
+  if (const char* fault = std::getenv("PLATEAU_FAULT_KILL_IN_CYCLE")) {
+    store->kill_in_cycle_ = std::atoll(fault);
+  }
   *status = store->Migrate(run_name);
   if (!status->ok()) return nullptr;
   return store;
@@ -322,8 +327,10 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       item->BindBlob(2, state);
       return item->Run();
     };
+    std::size_t written = 0;
     for (const auto& [name, state] : r.checkpoint) {
       if (!(s = put("state:" + name, state)).ok()) return s;
+      if (r.cycle == kill_in_cycle_ && ++written == r.checkpoint.size() / 2) std::raise(SIGKILL);
     }
     auto meta = db.Prepare(
         "INSERT OR REPLACE INTO meta(key, value) VALUES ('checkpoint_cycle', ?1), "

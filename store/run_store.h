@@ -161,6 +161,8 @@ class RunStore {
 
   // `PRAGMA integrity_check`: ok, or what SQLite found.
   Status CheckIntegrity();
+  // The store file was deleted, moved or replaced while open (see SqliteConnection::HasMoved).
+  bool HasMoved() const { return connection_->HasMoved(); }
 
   const std::string& path() const { return connection_->path(); }
 
@@ -172,6 +174,9 @@ class RunStore {
   std::vector<FileProgress> ReadFiles(Status* status);
 
   std::unique_ptr<SqliteConnection> connection_;
+  // Fault injection for the crash tests: with PLATEAU_FAULT_KILL_IN_CYCLE=N in the environment the
+  // process SIGKILLs itself halfway through cycle N's checkpoint, inside the open transaction.
+  std::int64_t kill_in_cycle_ = -1;
 };
 
 }  // namespace plateau

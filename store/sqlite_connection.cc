@@ -101,6 +101,12 @@ SqliteConnection::~SqliteConnection() { sqlite3_close(db_); }
 
 std::int64_t SqliteConnection::LastInsertId() const { return sqlite3_last_insert_rowid(db_); }
 
+bool SqliteConnection::HasMoved() const {
+  int moved = 0;
+  return sqlite3_file_control(db_, "main", SQLITE_FCNTL_HAS_MOVED, &moved) == SQLITE_OK &&
+         moved != 0;
+}
+
 std::string SqliteConnection::LastError() const {
   return "store " + path_ + ": " + sqlite3_errmsg(db_);
 }

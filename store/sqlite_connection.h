@@ -65,6 +65,9 @@ class SqliteConnection {
   std::unique_ptr<SqliteStatement> Prepare(const std::string& sql, Status* status);
   const std::string& path() const { return path_; }
   std::int64_t LastInsertId() const;
+  // True when the database file was deleted, renamed or replaced since it was opened: the path
+  // no longer names the file this connection writes (SQLITE_FCNTL_HAS_MOVED).
+  bool HasMoved() const;
   // "store PATH: <sqlite message>" for the last failure on this connection.
   std::string LastError() const;
 

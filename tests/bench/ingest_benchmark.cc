@@ -78,7 +78,7 @@ double RunAnalyze(const char* plateau, const char* path, long* peak_kib) {
   std::fflush(stdout);  // or the child inherits and repeats what is buffered
   const pid_t child = fork();
   if (child == 0) {
-    std::freopen("/dev/null", "w", stdout);
+    if (std::freopen("/dev/null", "w", stdout) == nullptr) _exit(126);
     execl(plateau, plateau, "analyze", path, "--json", static_cast<char*>(nullptr));
     _exit(127);
   }

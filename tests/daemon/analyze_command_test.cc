@@ -44,7 +44,7 @@ class AnalyzeCommand : public ::testing::Test {
     return path.string();
   }
 
-  int Run(std::vector<std::string> args) {
+  int Run(const std::vector<std::string>& args) {
     out_.str("");
     err_.str("");
     return RunAnalyzeCommand(args, out_, err_);

@@ -82,20 +82,20 @@ class RunFolder : public ::testing::Test {
     std::ofstream(Path(file), std::ios::app) << text;
   }
 
-  CommandResult Plateau(std::vector<std::string> args) {
+  CommandResult Plateau(const std::vector<std::string>& args) {
     return RunPlateau(args, Path("command"));
   }
 
   std::optional<LatestView> Latest() {
     Status status;
-    auto store = RunStore::OpenForReading(Path("plateau.db"), &status);
+    auto store = RunStore::OpenForReading(Path(store_), &status);
     if (!store) return std::nullopt;
     return store->ReadLatest(&status);
   }
 
   std::vector<EventRow> Events() {
     Status status;
-    auto store = RunStore::OpenForReading(Path("plateau.db"), &status);
+    auto store = RunStore::OpenForReading(Path(store_), &status);
     if (!store) return {};
     return store->ReadEvents(0, 1000, &status);
   }
@@ -110,6 +110,7 @@ class RunFolder : public ::testing::Test {
   }
 
   std::filesystem::path dir_;
+  std::string store_ = "plateau.db";  // relative to dir_, or absolute
 };
 
 }  // namespace plateau::testing
