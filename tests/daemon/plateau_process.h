@@ -121,6 +121,7 @@ class WatchDaemon {
   WatchDaemon& operator=(const WatchDaemon&) = delete;
 
   void Signal(int signal) { ::kill(pid_, signal); }
+  pid_t pid() const { return pid_; }
   // Exit code once it ended within `seconds`; -1 (and killed) otherwise; -2 if it died by signal.
   int Wait(double seconds) {
     if (!WaitFor([&] { return !Running(); }, seconds)) {
