@@ -1,9 +1,11 @@
 #include "store/run_store.h"
 
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <csignal>
 #include <cstdlib>
+#include <cstring>
 
 namespace plateau {
 namespace {
@@ -78,6 +80,9 @@ CREATE TABLE deliveries(
   last_attempt_at REAL,
   last_error TEXT NOT NULL,
   PRIMARY KEY(event_id, channel));
+)sql",
+                                                                              R"sql(
+UPDATE checkpoint SET item = item || '#0' WHERE item LIKE 'state:%';
 )sql"};
 
 std::string JoinColumns(const std::vector<std::string>& columns) {
@@ -100,6 +105,27 @@ std::vector<std::string> SplitColumns(const std::string& joined) {
   }
   columns.push_back(item);
   return columns;
+}
+
+// A 64-bit hash of a checkpoint page's raw bits (SplitMix64's finaliser on each word): two
+// versions of one page that differ anywhere differ here but with probability 2^-64.
+std::uint64_t PageHash(const double* values, std::size_t count) {
+  std::uint64_t h = 0x9e3779b97f4a7c15ULL ^ count;
+  for (std::size_t i = 0; i < count; ++i) {
+    std::uint64_t bits = 0;
+    std::memcpy(&bits, values + i, sizeof bits);
+    h ^= bits;
+    h *= 0xbf58476d1ce4e5b9ULL;
+    h ^= h >> 31;
+    h *= 0x94d049bb133111ebULL;
+    h ^= h >> 29;
+  }
+  return h;
+}
+
+// "state:NAME#k" for page k of item NAME.
+std::string PageKey(const std::string& item, std::size_t page) {
+  return "state:" + item + "#" + std::to_string(page);
 }
 
 // Runs `body` inside BEGIN IMMEDIATE .. COMMIT, rolling back on any failure.
@@ -203,9 +229,58 @@ Status RunStore::Migrate(const std::string& run_name) {
   return Status::Ok();
 }
 
+Status RunStore::WriteCheckpointPages(const CycleRecord& r, PageHashes& pages,
+                                      std::size_t* written) {
+  SqliteConnection& db = *connection_;
+  Status s;
+  // The first cycle of this connection writes every page and clears whatever else is there:
+  // pages of items that are gone, or of a longer history before a merge.
+  if (committed_pages_.empty() && !(s = db.Execute("DELETE FROM checkpoint")).ok()) return s;
+  struct Page {
+    const std::string* key;
+    const double* values;
+    std::size_t count;
+  };
+  std::vector<Page> changed;
+  for (const auto& [name, state] : r.checkpoint) {
+    const std::size_t count = std::max<std::size_t>(
+        1, (state.size() + kCheckpointPageDoubles - 1) / kCheckpointPageDoubles);
+    for (std::size_t k = 0; k < count; ++k) {
+      const std::size_t begin = k * kCheckpointPageDoubles;
+      const std::size_t size = std::min(kCheckpointPageDoubles, state.size() - begin);
+      const std::uint64_t hash = PageHash(state.data() + begin, size);
+      const auto [it, added] = pages.emplace(PageKey(name, k), hash);
+      const auto before = committed_pages_.find(it->first);
+      if (before == committed_pages_.end() || before->second != hash) {
+        changed.push_back({&it->first, state.data() + begin, size});
+      }
+    }
+  }
+  auto put = db.Prepare("INSERT OR REPLACE INTO checkpoint(item, state) VALUES (?1, ?2)", &s);
+  auto drop = db.Prepare("DELETE FROM checkpoint WHERE item = ?1", &s);
+  if (!put || !drop) return s;
+  for (std::size_t i = 0; i < changed.size(); ++i) {
+    put->Reset();
+    put->Bind(1, *changed[i].key);
+    put->BindBlob(2, changed[i].values, changed[i].count);
+    if (!(s = put->Run()).ok()) return s;
+    if (r.cycle == kill_in_cycle_ && i + 1 == (changed.size() + 1) / 2) std::raise(SIGKILL);
+  }
+  for (const auto& [key, hash] : committed_pages_) {
+    if (pages.count(key) > 0) continue;
+    drop->Reset();
+    drop->Bind(1, key);
+    if (!(s = drop->Run()).ok()) return s;
+  }
+  *written = changed.size();
+  return Status::Ok();
+}
+
 Status RunStore::WriteCycle(const CycleRecord& r) {
   SqliteConnection& db = *connection_;
-  return InTransaction(db, [&]() -> Status {
+  PageHashes pages;
+  std::size_t pages_written = 0;
+  const Status written = InTransaction(db, [&]() -> Status {
     Status s;
     auto cycle = db.Prepare(
         "INSERT OR REPLACE INTO cycles(cycle, wall_time, last_sample_time, "
@@ -318,20 +393,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       if (!(s = file->Run()).ok()) return s;
     }
 
-    if (!(s = db.Execute("DELETE FROM checkpoint")).ok()) return s;
-    auto item = db.Prepare("INSERT INTO checkpoint(item, state) VALUES (?1, ?2)", &s);
-    if (!item) return s;
-    const auto put = [&](const std::string& name, const std::vector<double>& state) {
-      item->Reset();
-      item->Bind(1, name);
-      item->BindBlob(2, state);
-      return item->Run();
-    };
-    std::size_t written = 0;
-    for (const auto& [name, state] : r.checkpoint) {
-      if (!(s = put("state:" + name, state)).ok()) return s;
-      if (r.cycle == kill_in_cycle_ && ++written == r.checkpoint.size() / 2) std::raise(SIGKILL);
-    }
+    if (!(s = WriteCheckpointPages(r, pages, &pages_written)).ok()) return s;
     auto meta = db.Prepare(
         "INSERT OR REPLACE INTO meta(key, value) VALUES ('checkpoint_cycle', ?1), "
         "('fingerprint', ?2)",
@@ -341,6 +403,12 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     meta->Bind(2, r.fingerprint);
     return meta->Run();
   });
+  // Only a committed cycle changes what the next one compares against.
+  if (written.ok()) {
+    committed_pages_ = std::move(pages);
+    checkpoint_pages_written_ = pages_written;
+  }
+  return written;
 }
 
 std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
@@ -387,12 +455,25 @@ std::optional<StoredCheckpoint> RunStore::ReadCheckpoint(Status* status) {
   if (!status->ok()) return std::nullopt;
   auto items = connection_->Prepare("SELECT item, state FROM checkpoint", status);
   if (!items) return std::nullopt;
+  // Pages of each item by number; an item whose pages are not 0..n-1 is left out (its owner
+  // then starts empty and says so), which a transaction-per-cycle store never holds.
+  std::map<std::string, std::map<std::size_t, std::vector<double>>> paged;
   while (items->Step()) {
-    std::string name = items->ColumnText(0);
-    if (name.rfind("state:", 0) == 0) c.items[name.substr(6)] = items->ColumnBlob(1);
+    const std::string key = items->ColumnText(0);
+    const std::size_t hash = key.rfind('#');
+    if (key.rfind("state:", 0) != 0 || hash == std::string::npos || hash + 1 == key.size() ||
+        key.find_first_not_of("0123456789", hash + 1) != std::string::npos) {
+      continue;
+    }
+    paged[key.substr(6, hash - 6)][std::stoull(key.substr(hash + 1))] = items->ColumnBlob(1);
   }
   *status = items->status();
   if (!status->ok()) return std::nullopt;
+  for (auto& [name, pages] : paged) {
+    if (pages.rbegin()->first + 1 != pages.size()) continue;
+    std::vector<double>& state = c.items[name];
+    for (auto& [k, values] : pages) state.insert(state.end(), values.begin(), values.end());
+  }
   return c;
 }
 

@@ -10,6 +10,7 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 #include "core/status.h"
@@ -132,7 +133,10 @@ struct StoredCheckpoint {
 
 class RunStore {
  public:
-  static constexpr int kSchemaVersion = 2;
+  static constexpr int kSchemaVersion = 3;
+  // Checkpoint items are stored in pages of this many doubles (3840 bytes: a row fits one 4 KiB
+  // database page). A cycle rewrites only the pages that changed.
+  static constexpr std::size_t kCheckpointPageDoubles = 480;
 
   // Opens for writing (creating and migrating the schema) or for reading only. nullptr with *status
   // set when the file cannot be opened, is not a plateau store, or comes from a newer schema.
@@ -140,8 +144,12 @@ class RunStore {
                                                   const std::string& run_name, Status* status);
   static std::unique_ptr<RunStore> OpenForReading(const std::string& path, Status* status);
 
-  // Writes one cycle in one transaction (all or nothing). Event ids are not returned.
+  // Writes one cycle in one transaction (all or nothing). Event ids are not returned. Of the
+  // checkpoint, only the pages that differ from what this store last committed are written (the
+  // first cycle after opening writes them all and removes every other row).
   Status WriteCycle(const CycleRecord& record);
+  // Checkpoint pages the last successful WriteCycle wrote (for tests and benchmarks).
+  std::size_t checkpoint_pages_written() const { return checkpoint_pages_written_; }
   // The newest checkpoint; nullopt for a new store.
   std::optional<StoredCheckpoint> ReadCheckpoint(Status* status);
   // The newest cycle, read in one transaction; nullopt (with an ok status) before the first cycle.
@@ -172,8 +180,16 @@ class RunStore {
   Status Migrate(const std::string& run_name);
   Status SchemaVersion(int* version);
   std::vector<FileProgress> ReadFiles(Status* status);
+  using PageHashes = std::unordered_map<std::string, std::uint64_t>;
+  // Inside WriteCycle's transaction: the checkpoint's changed pages (*written of them); `pages`
+  // receives every page's hash, to become committed_pages_ once the transaction commits.
+  Status WriteCheckpointPages(const CycleRecord& record, PageHashes& pages, std::size_t* written);
 
   std::unique_ptr<SqliteConnection> connection_;
+  // Per checkpoint page ("state:NAME#k"), a 64-bit hash of what the last committed cycle holds:
+  // a page is written again only when its hash changes. Empty until the first cycle is written.
+  PageHashes committed_pages_;
+  std::size_t checkpoint_pages_written_ = 0;
   // Fault injection for the crash tests: with PLATEAU_FAULT_KILL_IN_CYCLE=N in the environment the
   // process SIGKILLs itself halfway through cycle N's checkpoint, inside the open transaction.
   std::int64_t kill_in_cycle_ = -1;

@@ -31,9 +31,18 @@ void SqliteStatement::Bind(int index, const std::string& value) {
 }
 
 void SqliteStatement::BindBlob(int index, const std::vector<double>& values) {
+  BindBlob(index, values.data(), values.size());
+}
+
+void SqliteStatement::BindBlob(int index, const double* values, std::size_t count) {
   // Raw IEEE doubles: a checkpoint must restore every bit (the restart test compares to 1e-12).
-  sqlite3_bind_blob(statement_, index, values.data(),
-                    static_cast<int>(values.size() * sizeof(double)), SQLITE_TRANSIENT);
+  // An empty blob is bound as one, not as the NULL a null pointer would give.
+  if (count == 0) {
+    sqlite3_bind_zeroblob(statement_, index, 0);
+    return;
+  }
+  sqlite3_bind_blob(statement_, index, values, static_cast<int>(count * sizeof(double)),
+                    SQLITE_TRANSIENT);
 }
 
 void SqliteStatement::BindNull(int index) { sqlite3_bind_null(statement_, index); }

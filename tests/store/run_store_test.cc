@@ -167,6 +167,14 @@ TEST_F(RunStoreTest, VersionOneStoreIsMigratedAndKeepsItsHistory) {
     return text.str();
   }();
   ASSERT_EQ(sqlite3_exec(db, v1.c_str(), nullptr, nullptr, nullptr), SQLITE_OK);
+  // A checkpoint item as versions 1 and 2 wrote it: the whole state in one row.
+  sqlite3_stmt* legacy = nullptr;
+  sqlite3_prepare_v2(db, "INSERT INTO checkpoint VALUES ('state:history:tau', ?1)", -1, &legacy,
+                     nullptr);
+  const double state[3] = {4096.0, 5.0, -3e-300};
+  sqlite3_bind_blob(legacy, 1, state, sizeof state, SQLITE_STATIC);
+  ASSERT_EQ(sqlite3_step(legacy), SQLITE_DONE);
+  sqlite3_finalize(legacy);
   sqlite3_close(db);
   Status status;
   auto store = RunStore::OpenForWriting(path_, "ch420", &status);
@@ -175,9 +183,64 @@ TEST_F(RunStoreTest, VersionOneStoreIsMigratedAndKeepsItsHistory) {
   ASSERT_EQ(old.size(), 1u);
   EXPECT_EQ(old[0].message, "tau met its target");
   EXPECT_TRUE(std::isnan(old[0].value));  // a column the old schema did not have
+  const auto checkpoint = store->ReadCheckpoint(&status);
+  ASSERT_TRUE(checkpoint) << status.message();
+  EXPECT_EQ(checkpoint->items.at("history:tau"), std::vector<double>({4096.0, 5.0, -3e-300}));
   ASSERT_TRUE(store->WriteCycle(Cycle(8)).ok()) << "a migrated store takes new cycles";
   EXPECT_EQ(store->DueDeliveries(1e12, &status).size(), 2u);
   EXPECT_TRUE(store->CheckIntegrity().ok());
+}
+
+TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
+  Status status;
+  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+  ASSERT_TRUE(store) << status.message();
+  std::vector<double> history(5000);
+  for (std::size_t i = 0; i < history.size(); ++i) history[i] = 0.5 * static_cast<double>(i);
+  const auto write = [&](std::int64_t n) {
+    CycleRecord r = Cycle(n);
+    r.checkpoint["history:big"] = history;
+    ASSERT_TRUE(store->WriteCycle(r).ok());
+  };
+  const auto stored = [&] {
+    auto reader = RunStore::OpenForReading(path_, &status);
+    return reader->ReadCheckpoint(&status)->items.at("history:big");
+  };
+  const std::size_t pages = (5000 + RunStore::kCheckpointPageDoubles - 1) /
+                            RunStore::kCheckpointPageDoubles;
+  write(1);
+  EXPECT_EQ(store->checkpoint_pages_written(), pages + 1);  // and history:tau's one page
+  EXPECT_EQ(stored(), history);
+
+  // Between merges a history changes at its start (counts, the open block) and its end.
+  history.front() += 1.0;
+  history.back() = -3e-300;
+  write(2);
+  EXPECT_EQ(store->checkpoint_pages_written(), 2u);
+  EXPECT_EQ(stored(), history);
+
+  // A merge halves it: fewer pages, and none of the old ones left behind.
+  history.resize(2000);
+  history[700] = 7.0;
+  write(3);
+  EXPECT_EQ(stored(), history);
+  sqlite3* db = nullptr;
+  sqlite3_open(path_.c_str(), &db);
+  sqlite3_stmt* count = nullptr;
+  sqlite3_prepare_v2(db, "SELECT count(*) FROM checkpoint WHERE item LIKE 'state:history:big#%'",
+                     -1, &count, nullptr);
+  ASSERT_EQ(sqlite3_step(count), SQLITE_ROW);
+  EXPECT_EQ(sqlite3_column_int(count, 0), 5);  // 2000 doubles in pages of 480
+  sqlite3_finalize(count);
+  sqlite3_close(db);
+
+  // A new daemon on the store writes everything once, then only changes again.
+  store = RunStore::OpenForWriting(path_, "ch420", &status);
+  write(4);
+  EXPECT_EQ(store->checkpoint_pages_written(), 5u + 1u);
+  write(5);
+  EXPECT_EQ(store->checkpoint_pages_written(), 0u);
+  EXPECT_EQ(stored(), history);
 }
 
 TEST_F(RunStoreTest, ReaderNeverSeesHalfACycle) {
