@@ -149,8 +149,7 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
   return events;
 }
 
-void ConvergenceTracker::Retarget(std::optional<Target> target,
-                                  const StopRuleSettings& settings) {
+void ConvergenceTracker::Retarget(std::optional<Target> target, const StopRuleSettings& settings) {
   target_ = target;
   settings_ = settings;
   consecutive_ = 0;

@@ -64,8 +64,8 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
          FormatPercent(e.confidence) + " confidence" +
          (e.target.empty() ? "" : " (target half-width " + e.target + ")") + "\n";
   }
-  b += "Simulated time: " + FormatValue(e.simulated_time) + "; wall-clock time: " +
-       FormatUtcTime(e.wall_time) + "\n";
+  b += "Simulated time: " + FormatValue(e.simulated_time) +
+       "; wall-clock time: " + FormatUtcTime(e.wall_time) + "\n";
   if (!std::isnan(e.elapsed_wall)) {
     b += "Followed by plateau for " + FormatDuration(e.elapsed_wall) + " since its first sample.\n";
   }
@@ -82,9 +82,10 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
   if (e.kind != "run_met" && std::isfinite(e.remaining_time) && e.remaining_time > 0) {
     b += "Every target is expected to be met after " + FormatValue(e.remaining_time) +
          " more time units" +
-         (e.progress_rate > 0 ? " (about " + FormatDuration(e.remaining_time / e.progress_rate * 3600.0) +
-                                    " at the observed rate)"
-                              : "") +
+         (e.progress_rate > 0
+              ? " (about " + FormatDuration(e.remaining_time / e.progress_rate * 3600.0) +
+                    " at the observed rate)"
+              : "") +
          ".\n";
   }
   b += "\nRun " + c.run_name + ", store " + c.store_path + "\n" +

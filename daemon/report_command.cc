@@ -246,8 +246,9 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
   html += "<h1>plateau report: " + Html(latest->run_name) + "</h1><p>Cycle " +
           std::to_string(latest->cycle) + ", evaluated " + FormatUtcTime(latest->wall_time) +
           "; newest sample at simulated time " + Html(FormatValue(latest->last_sample_time)) +
-          ". " + (latest->run_met ? "<b>Every target is met: the solver can stop.</b>"
-                                  : "Not every target is met yet.") +
+          ". " +
+          (latest->run_met ? "<b>Every target is met: the solver can stop.</b>"
+                           : "Not every target is met yet.") +
           "</p><p class=\"caution\">These intervals measure sampling error only: how far each time "
           "average could still move if the same simulation ran longer. Statistical convergence is "
           "neither mesh convergence nor validation; engineering use defers to the applicable codes "

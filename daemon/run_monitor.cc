@@ -236,12 +236,12 @@ void RunMonitor::WatchInput(const CycleRecord& record, double wall_time,
   if (!stalled_ && !std::isnan(last_sample_wall_) &&
       wall_time - last_sample_wall_ > config_.alerts.stall_after) {
     stalled_ = true;
-    events.push_back(MakeEvent(
-        "stalled", "",
-        "no new sample for " + FormatDuration(wall_time - last_sample_wall_) +
-            " (the newest has time " + FormatValue(record.last_sample_time) +
-            "): has the solver stopped, crashed or hung?",
-        record.last_sample_time, wall_time));
+    events.push_back(MakeEvent("stalled", "",
+                               "no new sample for " +
+                                   FormatDuration(wall_time - last_sample_wall_) +
+                                   " (the newest has time " + FormatValue(record.last_sample_time) +
+                                   "): has the solver stopped, crashed or hung?",
+                               record.last_sample_time, wall_time));
   }
   std::uint64_t bad = 0;
   for (const auto& tail : tails_) bad += tail->bad_lines();

@@ -260,9 +260,10 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
   if (!read.ok) {
     // Once per spell, not once per poll: a file unreadable for a day must not fill the log.
     if (!file.unreadable) {
-      log_->warn("{}; the {} samples read from it are kept, and reading resumes from byte {} "
-                 "when it can be read again",
-                 read.error, file.parser.rows(), file.parser.consumed_bytes());
+      log_->warn(
+          "{}; the {} samples read from it are kept, and reading resumes from byte {} "
+          "when it can be read again",
+          read.error, file.parser.rows(), file.parser.consumed_bytes());
     }
     file.unreadable = true;
     return false;

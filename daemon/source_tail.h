@@ -66,7 +66,7 @@ class SourceTail {
     double first_time = std::numeric_limits<double>::quiet_NaN();
     double last_time = std::numeric_limits<double>::quiet_NaN();
     bool vanished = false;
-    bool unreadable = false;  // the last read failed (permissions, I/O error); logged once
+    bool unreadable = false;       // the last read failed (permissions, I/O error); logged once
     bool layout_mismatch = false;  // columns differ from the source's: the file is ignored
     std::uint64_t bad_lines_logged = 0;
     std::uint64_t bad_lines_reported = 0;

@@ -49,7 +49,8 @@ std::string Prediction(double simulated, double wall_seconds, double now) {
   std::snprintf(figure, sizeof figure, "%.3g", simulated);
   std::string text = std::string(figure) + " time units";
   if (!std::isnan(wall_seconds)) {
-    text += " (about " + FormatDuration(wall_seconds) + ", at " + FormatUtcTime(now + wall_seconds) + ")";
+    text += " (about " + FormatDuration(wall_seconds) + ", at " +
+            FormatUtcTime(now + wall_seconds) + ")";
   }
   return text;
 }
@@ -81,8 +82,8 @@ std::string TextOr(const JsonValue* v) {
 
 std::string StatusTable(const LatestView& v, const StatusContext& c) {
   std::string out = "run '" + v.run_name + "': cycle " + std::to_string(v.cycle) + ", evaluated " +
-                    FormatDuration(c.now - v.wall_time) + " ago (" + FormatUtcTime(v.wall_time) + "); " +
-                    DaemonLine(c, c.now - v.wall_time) + "\n";
+                    FormatDuration(c.now - v.wall_time) + " ago (" + FormatUtcTime(v.wall_time) +
+                    "); " + DaemonLine(c, c.now - v.wall_time) + "\n";
   out += "newest sample: time " + FormatValue(v.last_sample_time) + ", read " +
          FormatDuration(c.now - v.last_sample_wall_time) + " ago\n\n";
   using A = TextTable::Align;

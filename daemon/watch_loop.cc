@@ -70,8 +70,8 @@ std::string WatchLoop::Reload() {
   const std::optional<RunConfig> fresh = LoadRunConfig(monitor_.config().config_path, &errors);
   if (!fresh) {
     std::string message = "config reload failed (" + std::to_string(errors.size()) +
-                                " problems, the first: " + errors.front().ToString() +
-                                "); the current config stays";
+                          " problems, the first: " + errors.front().ToString() +
+                          "); the current config stays";
     log_->error("{}", message);
     return message;
   }
@@ -99,9 +99,10 @@ double WatchLoop::Now() {
     const double jump =
         (wall - last_wall_) - std::chrono::duration<double>(steady - last_steady_).count();
     if (std::fabs(jump) > kClockJumpSeconds) {
-      log_->warn("the system clock jumped {} by {}; durations (stall, progress rate) are measured "
-                 "across the jump, and recorded times follow the new clock",
-                 jump > 0 ? "forward" : "back", FormatDuration(std::fabs(jump)));
+      log_->warn(
+          "the system clock jumped {} by {}; durations (stall, progress rate) are measured "
+          "across the jump, and recorded times follow the new clock",
+          jump > 0 ? "forward" : "back", FormatDuration(std::fabs(jump)));
       monitor_.ShiftWallClock(jump);
     }
   }
@@ -118,7 +119,8 @@ void WatchLoop::Evaluate() {
   if (monitor_.store().HasMoved()) {
     stop_reason_ = "the store " + monitor_.store().path() +
                    " was deleted, moved or replaced while plateau ran (was the run folder "
-                   "removed?); stopping after cycle " + std::to_string(monitor_.cycle()) +
+                   "removed?); stopping after cycle " +
+                   std::to_string(monitor_.cycle()) +
                    ", which went to the moved file if it still exists. Start plateau watch "
                    "again to go on with a new store";
     log_->error("{}", stop_reason_);

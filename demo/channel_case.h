@@ -6,14 +6,14 @@
 
 namespace plateau_demo {
 
-constexpr double kHalfHeight = 0.025;   // delta, m
-constexpr double kViscosity = 1.0e-6;   // nu, m^2/s (water near 20 C)
-constexpr double kDensity = 998.0;      // rho, kg/m^3
-constexpr double kReTau = 420.0;        // the friction Reynolds number the gradient imposes
-constexpr double kFrictionVelocity = kReTau * kViscosity / kHalfHeight;        // 0.0168 m/s
+constexpr double kHalfHeight = 0.025;  // delta, m
+constexpr double kViscosity = 1.0e-6;  // nu, m^2/s (water near 20 C)
+constexpr double kDensity = 998.0;     // rho, kg/m^3
+constexpr double kReTau = 420.0;       // the friction Reynolds number the gradient imposes
+constexpr double kFrictionVelocity = kReTau * kViscosity / kHalfHeight;          // 0.0168 m/s
 constexpr double kWallShear = kDensity * kFrictionVelocity * kFrictionVelocity;  // 0.2817 Pa
 // Streamwise momentum balance of the whole channel: tau_w = -(dP/dx) delta.
-constexpr double kPressureGradient = -kWallShear / kHalfHeight;                 // -11.27 Pa/m
+constexpr double kPressureGradient = -kWallShear / kHalfHeight;  // -11.27 Pa/m
 
 // Wall distances of the probe line's points, m (y+ from 1.7 to 370).
 constexpr double kLinePositions[] = {0.0001, 0.0003, 0.0006, 0.001, 0.002, 0.003,

@@ -10,7 +10,7 @@ namespace plateau_demo {
 namespace {
 
 constexpr double kPi = 3.14159265358979323846;
-constexpr double kWallShearTime = 0.02;   // s, integral time of the wall shear stress
+constexpr double kWallShearTime = 0.02;      // s, integral time of the wall shear stress
 constexpr double kWallShearIntensity = 0.4;  // rms / mean (common practice: about 0.4)
 constexpr double kDragNoise = 0.12, kDragTime = 0.04;
 constexpr double kLiftNoise = 0.1, kLiftNoiseTime = 0.01;
@@ -107,12 +107,12 @@ std::string ChannelProbes::LineRow(double t) {
 
 std::string ChannelProbes::ForcesRow(double t) {
   const double s = Startup(t);
-  lift_phase_ += 2.0 * kPi * kSheddingFrequency * dt_ +
-                 kPhaseDiffusion * std::sqrt(dt_) * phase_noise_(rng_);
+  lift_phase_ +=
+      2.0 * kPi * kSheddingFrequency * dt_ + kPhaseDiffusion * std::sqrt(dt_) * phase_noise_(rng_);
   const double amplitude =
       kLiftAmplitude * (1.0 - 0.8 * s) * (1.0 + kLiftModulation * lift_amplitude_.Next());
-  const double drag = kDragCoefficient * (1.0 - 0.5 * s) +
-                      0.05 * std::sin(2.0 * lift_phase_) + kDragNoise * drag_noise_.Next();
+  const double drag = kDragCoefficient * (1.0 - 0.5 * s) + 0.05 * std::sin(2.0 * lift_phase_) +
+                      kDragNoise * drag_noise_.Next();
   std::string row = TimeField(t);
   Append(row, drag);
   Append(row, amplitude * std::sin(lift_phase_) + kLiftNoise * lift_noise_.Next());

@@ -15,10 +15,9 @@ constexpr double kBias = 0.04;
 constexpr double kBiasLength = 60.0;
 
 double ReichardtGradientPlus(double y) {
-  return 1.0 / (1.0 + kKappa * y) +
-         kReichardtC * (std::exp(-y / kReichardtChi) / kReichardtChi -
-                        std::exp(-y / 3.0) / kReichardtChi +
-                        y / (3.0 * kReichardtChi) * std::exp(-y / 3.0));
+  return 1.0 / (1.0 + kKappa * y) + kReichardtC * (std::exp(-y / kReichardtChi) / kReichardtChi -
+                                                   std::exp(-y / 3.0) / kReichardtChi +
+                                                   y / (3.0 * kReichardtChi) * std::exp(-y / 3.0));
 }
 
 double BiasFactor(double y) { return 1.0 + kBias * (1.0 - std::exp(-y / kBiasLength)); }
@@ -29,8 +28,8 @@ double BiasFactorGradient(double y) { return kBias / kBiasLength * std::exp(-y /
 
 double ChannelProfileModel::ReichardtPlus(double y) {
   return std::log(1.0 + kKappa * y) / kKappa +
-         kReichardtC * (1.0 - std::exp(-y / kReichardtChi) -
-                        y / kReichardtChi * std::exp(-y / 3.0));
+         kReichardtC *
+             (1.0 - std::exp(-y / kReichardtChi) - y / kReichardtChi * std::exp(-y / 3.0));
 }
 
 double ChannelProfileModel::MeanVelocityPlus(double y) { return BiasFactor(y) * ReichardtPlus(y); }

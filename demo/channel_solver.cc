@@ -61,15 +61,24 @@ Options Parse(int argc, char** argv) {
     const std::string key = argv[i];
     if (i + 1 >= argc) Usage(key + " needs a value");
     const char* value = argv[i + 1];
-    if (key == "--out") o.out = value;
-    else if (key == "--speed-up") o.speed_up = PositiveNumber(key, value);
-    else if (key == "--duration") o.duration = PositiveNumber(key, value);
-    else if (key == "--restart-at") o.restart_at = PositiveNumber(key, value);
-    else if (key == "--overlap") o.overlap = PositiveNumber(key, value);
-    else if (key == "--restart-pause") o.restart_pause = PositiveNumber(key, value);
-    else if (key == "--dt") o.dt = PositiveNumber(key, value);
-    else if (key == "--seed") o.seed = static_cast<unsigned>(PositiveNumber(key, value));
-    else Usage("unknown option " + key);
+    if (key == "--out")
+      o.out = value;
+    else if (key == "--speed-up")
+      o.speed_up = PositiveNumber(key, value);
+    else if (key == "--duration")
+      o.duration = PositiveNumber(key, value);
+    else if (key == "--restart-at")
+      o.restart_at = PositiveNumber(key, value);
+    else if (key == "--overlap")
+      o.overlap = PositiveNumber(key, value);
+    else if (key == "--restart-pause")
+      o.restart_pause = PositiveNumber(key, value);
+    else if (key == "--dt")
+      o.dt = PositiveNumber(key, value);
+    else if (key == "--seed")
+      o.seed = static_cast<unsigned>(PositiveNumber(key, value));
+    else
+      Usage("unknown option " + key);
   }
   if (!(o.speed_up > 0.0) || !(o.dt > 0.0)) Usage("--speed-up and --dt must be > 0");
   return o;
@@ -89,8 +98,9 @@ void WriteReference(const std::filesystem::path& path) {
   std::filesystem::create_directories(path.parent_path());
   std::FILE* f = std::fopen(path.c_str(), "w");
   if (f == nullptr) Usage("cannot write " + path.string());
-  std::fprintf(f, "# Reichardt's law of the wall (Reichardt 1951; kappa 0.41, C 7.8)\n"
-                  "# y+ U+\n");
+  std::fprintf(f,
+               "# Reichardt's law of the wall (Reichardt 1951; kappa 0.41, C 7.8)\n"
+               "# y+ U+\n");
   for (int i = 0; 0.5 * std::pow(1.05, i) <= kReTau; ++i) {
     const double y = 0.5 * std::pow(1.05, i);
     std::fprintf(f, "%.4f %.5f\n", y, ChannelProfileModel::ReichardtPlus(y));
@@ -120,7 +130,8 @@ class SolverJob {
     long step = start_step;
     while (step < end_step && !StopRequested()) {
       const double elapsed = std::chrono::duration<double>(Clock::now() - started).count();
-      const long due = std::min(end_step, start_step + static_cast<long>(elapsed * o_.speed_up / o_.dt));
+      const long due =
+          std::min(end_step, start_step + static_cast<long>(elapsed * o_.speed_up / o_.dt));
       for (; step < due; ++step) WriteStep(step);
       for (std::FILE* f : {wall_, line_, forces_}) std::fflush(f);
       std::this_thread::sleep_for(std::chrono::milliseconds(50));
@@ -135,9 +146,7 @@ class SolverJob {
     std::fprintf(forces_, "%.4f 1.1", step * o_.dt);
   }
 
-  bool StopRequested() const {
-    return g_terminate || std::filesystem::exists(o_.out / "STOP");
-  }
+  bool StopRequested() const { return g_terminate || std::filesystem::exists(o_.out / "STOP"); }
 
  private:
   void WriteStep(long step) {
@@ -176,9 +185,10 @@ int main(int argc, char** argv) {
   ChannelProbes probes(o.dt, o.seed);
   const long last_step = std::lround(o.duration / o.dt);
   const long crash_step = std::min(last_step, std::lround(o.restart_at / o.dt));
-  std::printf("demo_channel_solver: channel LES, delta %.3f m, Re_tau %.0f, dP/dx %.3f Pa/m, "
-              "tau_w %.4f Pa; %g x real time\n",
-              kHalfHeight, kReTau, kPressureGradient, kWallShear, o.speed_up);
+  std::printf(
+      "demo_channel_solver: channel LES, delta %.3f m, Re_tau %.0f, dP/dx %.3f Pa/m, "
+      "tau_w %.4f Pa; %g x real time\n",
+      kHalfHeight, kReTau, kPressureGradient, kWallShear, o.speed_up);
   std::fflush(stdout);
 
   long step = 0;
@@ -191,8 +201,10 @@ int main(int argc, char** argv) {
     }
     first.Die(step);
   }
-  std::printf("demo_channel_solver: job 1 died at t = %.3f s; resubmitted, restarting from the "
-              "checkpoint at t = %.3f s into run2/\n", step * o.dt, step * o.dt - o.overlap);
+  std::printf(
+      "demo_channel_solver: job 1 died at t = %.3f s; resubmitted, restarting from the "
+      "checkpoint at t = %.3f s into run2/\n",
+      step * o.dt, step * o.dt - o.overlap);
   std::fflush(stdout);
   std::this_thread::sleep_for(std::chrono::duration<double>(o.restart_pause));
 

@@ -57,7 +57,7 @@ CREATE TABLE files(
 CREATE TABLE checkpoint(item TEXT PRIMARY KEY, state BLOB NOT NULL);
 INSERT INTO meta(key, value) VALUES ('application', 'plateau');
 )sql",
-                                                                              R"sql(
+                                                                           R"sql(
 ALTER TABLE events ADD COLUMN value REAL;
 ALTER TABLE events ADD COLUMN half_width REAL;
 ALTER TABLE events ADD COLUMN confidence REAL;
@@ -81,7 +81,7 @@ CREATE TABLE deliveries(
   last_error TEXT NOT NULL,
   PRIMARY KEY(event_id, channel));
 )sql",
-                                                                              R"sql(
+                                                                           R"sql(
 UPDATE checkpoint SET item = item || '#0' WHERE item LIKE 'state:%';
 )sql"};
 

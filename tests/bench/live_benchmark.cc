@@ -26,30 +26,14 @@
 #include <thread>
 #include <vector>
 
+#include "tests/bench/bench_process.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-using Clock = std::chrono::steady_clock;
-
-double Since(Clock::time_point start) {
-  return std::chrono::duration<double>(Clock::now() - start).count();
-}
-
-pid_t Start(const std::vector<std::string>& args, const std::string& log) {
-  std::fflush(stdout);
-  const pid_t pid = fork();
-  if (pid == 0) {
-    const int fd = ::open(log.c_str(), O_WRONLY | O_CREAT | O_APPEND, 0644);
-    ::dup2(fd, 1);
-    ::dup2(fd, 2);
-    std::vector<char*> argv;
-    for (const std::string& a : args) argv.push_back(const_cast<char*>(a.c_str()));
-    argv.push_back(nullptr);
-    ::execv(argv[0], argv.data());
-    _exit(127);
-  }
-  return pid;
-}
+using plateau::bench::Clock;
+using plateau::bench::Since;
+using plateau::bench::Start;
 
 // User + system CPU seconds and peak RSS (KiB) of a live process, from /proc.
 void Usage(pid_t pid, double* cpu, long* peak_kib) {

@@ -3,9 +3,10 @@
 //  cycle N    N mean statistics on one source with N columns: the daemon's RunMonitor (the code of
 //             `plateau watch`) reads 5000 rows and writes its first cycle; then, 50 new rows
 //             before each, one evaluation cycle (estimates, snapshots, events and the checkpoint
-//             written to the store in one transaction) is timed, median of 5; prints milliseconds per cycle and per statistic (linear: the per-statistic
-//             figure stays put as N grows), resident memory per statistic, and the bytes each
-//             cycle writes to storage per statistic (the checkpoint);
+//             written to the store in one transaction) is timed, median of 5; prints milliseconds
+//             per cycle and per statistic (linear: the per-statistic figure stays put as N grows),
+//             resident memory per statistic, and the bytes each cycle writes to storage per
+//             statistic (the checkpoint);
 //  growth N   the same monitor while the run grows from 5 000 to 400 000 rows: resident memory per
 //             statistic at each length (flat once the block histories are full: 4096 blocks);
 //  status N   `plateau watch` on N statistics, then `plateau status` and `status --json` timed
@@ -31,15 +32,14 @@
 #include "daemon/run_logger.h"
 #include "daemon/run_monitor.h"
 #include "store/run_store.h"
+#include "tests/bench/bench_process.h"
 
 namespace {
 
 namespace fs = std::filesystem;
-using Clock = std::chrono::steady_clock;
-
-double Since(Clock::time_point start) {
-  return std::chrono::duration<double>(Clock::now() - start).count();
-}
+using plateau::bench::Clock;
+using plateau::bench::Since;
+using plateau::bench::Start;
 
 long ResidentKib() {
   std::ifstream status("/proc/self/status");
@@ -147,11 +147,12 @@ int Cycle(int statistics) {
   }
   const long after = ResidentKib();
   const double cycle = Median(seconds);
-  std::printf("cycle: %5d statistics, 5000 rows: %8.1f ms per cycle, %.3f ms per statistic; "
-              "resident %.0f KiB and %.0f KiB written to the store per statistic and cycle\n",
-              statistics, 1e3 * cycle, 1e3 * cycle / statistics,
-              static_cast<double>(after - before) / statistics,
-              static_cast<double>(written) / 5.0 / 1024.0 / statistics);
+  std::printf(
+      "cycle: %5d statistics, 5000 rows: %8.1f ms per cycle, %.3f ms per statistic; "
+      "resident %.0f KiB and %.0f KiB written to the store per statistic and cycle\n",
+      statistics, 1e3 * cycle, 1e3 * cycle / statistics,
+      static_cast<double>(after - before) / statistics,
+      static_cast<double>(written) / 5.0 / 1024.0 / statistics);
   fs::remove_all(dir);
   return 0;
 }
@@ -166,26 +167,11 @@ int Growth(int statistics) {
     rows = length;
     ReadAllRows(*monitor);
     if (!monitor->Evaluate(WallSeconds()).ok()) return 1;
-    std::printf("growth: %d statistics at %7ld rows: resident %.0f KiB per statistic\n",
-                statistics, rows, static_cast<double>(ResidentKib() - before) / statistics);
+    std::printf("growth: %d statistics at %7ld rows: resident %.0f KiB per statistic\n", statistics,
+                rows, static_cast<double>(ResidentKib() - before) / statistics);
   }
   fs::remove_all(dir);
   return 0;
-}
-
-pid_t Start(const std::vector<std::string>& args, const std::string& output) {
-  std::fflush(stdout);
-  const pid_t pid = fork();
-  if (pid == 0) {
-    if (std::freopen(output.c_str(), "w", stdout) == nullptr) _exit(126);
-    if (std::freopen(output.c_str(), "a", stderr) == nullptr) _exit(126);
-    std::vector<char*> argv;
-    for (const std::string& a : args) argv.push_back(const_cast<char*>(a.c_str()));
-    argv.push_back(nullptr);
-    ::execv(argv[0], argv.data());
-    _exit(127);
-  }
-  return pid;
 }
 
 double TimeCommand(const std::vector<std::string>& args) {
@@ -199,8 +185,8 @@ int StatusLatency(const std::string& plateau, int statistics) {
   const fs::path dir = MakeRun(statistics);
   AppendRows(dir, statistics, 0, 5000);
   const std::string config = (dir / "run.yaml").string();
-  const pid_t daemon =
-      Start({plateau, "watch", config, "--quiet", "--evaluate-every", "3600"}, (dir / "log").string());
+  const pid_t daemon = Start({plateau, "watch", config, "--quiet", "--evaluate-every", "3600"},
+                             (dir / "log").string());
   const auto started = Clock::now();
   while (TimeCommand({plateau, "status", config}) < 0 && Since(started) < 300) {
     std::this_thread::sleep_for(std::chrono::milliseconds(100));

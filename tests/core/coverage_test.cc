@@ -105,7 +105,8 @@ struct ChannelWallShear {
     std::vector<double> x = testing::Ar1(n, phi, seed, 0.0, std::sqrt(1.0 - phi * phi));
     for (std::size_t t = 0; t < n; ++t) {
       const double skewed = (x[t] + 0.15 * (x[t] * x[t] - 1.0)) / std::sqrt(1.045);
-      const double rise = startup > 0.0 ? 1.0 - 0.6 * std::exp(-static_cast<double>(t) / startup) : 1.0;
+      const double rise =
+          startup > 0.0 ? 1.0 - 0.6 * std::exp(-static_cast<double>(t) / startup) : 1.0;
       x[t] = kExact * rise * (1.0 + 0.4 * skewed);
     }
     return x;

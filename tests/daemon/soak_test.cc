@@ -167,7 +167,8 @@ TEST_F(Soak, FlatMemoryNoDescriptorLeakEverySampleOnceNoEventTwice) {
   // Every sample once: each source's statistics saw exactly the distinct steps written.
   const std::int64_t expected = rows_written;
   ASSERT_TRUE(WaitFor([&] { return Samples() == expected; }, 30))
-      << Samples() << " of " << expected << "\n" << ReadAll(Path("soak.plateau.log"));
+      << Samples() << " of " << expected << "\n"
+      << ReadAll(Path("soak.plateau.log"));
   const auto latest = Latest();
   ASSERT_TRUE(latest);
   for (const SnapshotRow& s : latest->statistics) {
@@ -190,10 +191,11 @@ TEST_F(Soak, FlatMemoryNoDescriptorLeakEverySampleOnceNoEventTwice) {
     late_rss = std::max(late_rss, samples[i].rss_kib);
     late_fds = std::max(late_fds, samples[i].descriptors);
   }
-  std::printf("soak %.0f s: %d solver restarts, %d status/check answers (%d failed); rss %ld -> "
-              "%ld KiB, descriptors %ld -> %ld\n",
-              seconds, restarts.load(), answers.load(), failures.load(), early_rss, late_rss,
-              early_fds, late_fds);
+  std::printf(
+      "soak %.0f s: %d solver restarts, %d status/check answers (%d failed); rss %ld -> "
+      "%ld KiB, descriptors %ld -> %ld\n",
+      seconds, restarts.load(), answers.load(), failures.load(), early_rss, late_rss, early_fds,
+      late_fds);
   EXPECT_LE(late_rss, early_rss + early_rss / 10);
   EXPECT_LE(late_fds, early_fds + 2);  // a client's connection may be open at either moment
   EXPECT_GE(restarts.load(), static_cast<int>(seconds / kRestartEvery) - 1);

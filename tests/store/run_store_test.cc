@@ -206,8 +206,8 @@ TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
     auto reader = RunStore::OpenForReading(path_, &status);
     return reader->ReadCheckpoint(&status)->items.at("history:big");
   };
-  const std::size_t pages = (5000 + RunStore::kCheckpointPageDoubles - 1) /
-                            RunStore::kCheckpointPageDoubles;
+  const std::size_t pages =
+      (5000 + RunStore::kCheckpointPageDoubles - 1) / RunStore::kCheckpointPageDoubles;
   write(1);
   EXPECT_EQ(store->checkpoint_pages_written(), pages + 1);  // and history:tau's one page
   EXPECT_EQ(stored(), history);
