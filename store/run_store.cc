@@ -249,7 +249,7 @@ Status RunStore::WriteCheckpointPages(const CycleRecord& r, PageHashes& pages,
       const std::size_t begin = k * kCheckpointPageDoubles;
       const std::size_t size = std::min(kCheckpointPageDoubles, state.size() - begin);
       const std::uint64_t hash = PageHash(state.data() + begin, size);
-      const auto [it, added] = pages.emplace(PageKey(name, k), hash);
+      const auto it = pages.emplace(PageKey(name, k), hash).first;
       const auto before = committed_pages_.find(it->first);
       if (before == committed_pages_.end() || before->second != hash) {
         changed.push_back({&it->first, state.data() + begin, size});
@@ -280,7 +280,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
   SqliteConnection& db = *connection_;
   PageHashes pages;
   std::size_t pages_written = 0;
-  const Status written = InTransaction(db, [&]() -> Status {
+  Status written = InTransaction(db, [&]() -> Status {
     Status s;
     auto cycle = db.Prepare(
         "INSERT OR REPLACE INTO cycles(cycle, wall_time, last_sample_time, "
