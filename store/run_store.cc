@@ -264,7 +264,9 @@ Status RunStore::WriteCheckpointPages(const CycleRecord& r, PageHashes& pages,
     put->Bind(1, *changed[i].key);
     put->BindBlob(2, changed[i].values, changed[i].count);
     if (!(s = put->Run()).ok()) return s;
-    if (r.cycle == kill_in_cycle_ && i + 1 == (changed.size() + 1) / 2) std::raise(SIGKILL);
+    if (kill_in_cycle_ > 0 && r.cycle >= kill_in_cycle_ && i + 1 == (changed.size() + 1) / 2) {
+      std::raise(SIGKILL);
+    }
   }
   for (const auto& [key, hash] : committed_pages_) {
     if (pages.count(key) > 0) continue;

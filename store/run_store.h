@@ -191,7 +191,8 @@ class RunStore {
   PageHashes committed_pages_;
   std::size_t checkpoint_pages_written_ = 0;
   // Fault injection for the crash tests: with PLATEAU_FAULT_KILL_IN_CYCLE=N in the environment the
-  // process SIGKILLs itself halfway through cycle N's checkpoint, inside the open transaction.
+  // process SIGKILLs itself halfway through the checkpoint pages of the first cycle from N on that
+  // writes any (a quiet cycle writes none), inside the open transaction.
   std::int64_t kill_in_cycle_ = -1;
 };
 
