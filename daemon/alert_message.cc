@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <ctime>
 #include <iterator>
 
 #include "daemon/analysis_report.h"

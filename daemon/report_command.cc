@@ -1,7 +1,6 @@
 #include "daemon/report_command.h"
 
 #include <cmath>
-#include <ctime>
 #include <filesystem>
 #include <fstream>
 #include <map>

@@ -2,7 +2,6 @@
 
 #include <cmath>
 #include <cstdio>
-#include <ctime>
 #include <limits>
 
 #include "daemon/analysis_report.h"

@@ -30,10 +30,6 @@ void SqliteStatement::Bind(int index, const std::string& value) {
                     SQLITE_TRANSIENT);
 }
 
-void SqliteStatement::BindBlob(int index, const std::vector<double>& values) {
-  BindBlob(index, values.data(), values.size());
-}
-
 void SqliteStatement::BindBlob(int index, const double* values, std::size_t count) {
   // Raw IEEE doubles: a checkpoint must restore every bit (the restart test compares to 1e-12).
   // An empty blob is bound as one, not as the NULL a null pointer would give.

@@ -26,7 +26,6 @@ class SqliteStatement {
   void Bind(int index, double value);
   void Bind(int index, std::int64_t value);
   void Bind(int index, const std::string& value);
-  void BindBlob(int index, const std::vector<double>& values);
   void BindBlob(int index, const double* values, std::size_t count);
   void BindNull(int index);
 

@@ -56,6 +56,13 @@ class FaultInjection : public testing::RunFolder {
     return true;
   }
 
+  // SIGTERM: a clean stop (exit 0), and a store that passes PRAGMA integrity_check.
+  void StopCleanly(WatchDaemon& daemon) {
+    daemon.Signal(SIGTERM);
+    EXPECT_EQ(daemon.Wait(10), 0);
+    EXPECT_TRUE(IntegrityOk());
+  }
+
   bool IntegrityOk() {
     Status status;
     auto store = RunStore::OpenForReading(Path(store_), &status);
@@ -109,9 +116,7 @@ TEST_F(FaultInjection, FullDiskKeepsWhatWasRecordedAndCatchesUpWhenSpaceReturns)
   Append("run1/probe.dat", rows.Rows(4000, 6000));
   ASSERT_TRUE(WaitFor([&] { return Samples() == 6000; }, 10)) << ReadAll(Path("test.plateau.log"));
   EXPECT_GE(CountInLog("the store accepts writes again"), 1);
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, ReadOnlyStoreRefusesToStartAndStillAnswersStatus) {
@@ -158,9 +163,7 @@ TEST_F(FaultInjection, ReadOnlyStoreRefusesToStartAndStillAnswersStatus) {
   WatchDaemon daemon(Path("run.yaml"), Path("watch.log"), 0.2, 0.1, bound);
   ASSERT_TRUE(WaitFor([&] { return Samples() == 4000; }, 10)) << ReadAll(Path("watch.log"));
   EXPECT_GT(Latest()->cycle, cycle);
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, RunFolderDeletedStopsTheDaemonWithAClearMessage) {
@@ -200,9 +203,7 @@ TEST_F(FaultInjection, RunFolderMovedAwayAndBackGoesOnWhereItWas) {
   Append("run1/probe.dat", rows.Rows(2000, 3000));
   WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
   ASSERT_TRUE(WaitFor([&] { return Samples() == 3000; }, 10)) << ReadAll(Path("watch.log"));
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, UnreadableProbeFileIsLoggedOnceAndReadOnWhenReadableAgain) {
@@ -228,9 +229,7 @@ TEST_F(FaultInjection, UnreadableProbeFileIsLoggedOnceAndReadOnWhenReadableAgain
   EXPECT_EQ(CountInLog("reading it again from the start"), 0);
   const CommandResult status = Plateau({"status", "--json", Path("run.yaml")});
   EXPECT_NE(status.out.find("\"bad_lines\":0"), std::string::npos) << status.out;
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, ProbeFileReplacedByABinaryOneIsCountedAsBadLinesNotData) {
@@ -255,9 +254,7 @@ TEST_F(FaultInjection, ProbeFileReplacedByABinaryOneIsCountedAsBadLinesNotData) 
   std::ofstream(Path("probe.tmp")) << "# time x y\n" << rows.Rows(1500, 3000);
   fs::rename(Path("probe.tmp"), Path("run1/probe.dat"));
   ASSERT_TRUE(WaitFor([&] { return Samples() == 3000; }, 10)) << ReadAll(Path("test.plateau.log"));
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, ClockStepsForwardAndBackWithoutAFalseStall) {
@@ -296,9 +293,7 @@ TEST_F(FaultInjection, ClockStepsForwardAndBackWithoutAFalseStall) {
       << ReadAll(Path("test.plateau.log"));
   EXPECT_EQ(CountInLog("the system clock jumped back by"), 1);
   for (const EventRow& e : Events()) EXPECT_NE(e.kind, "stalled") << e.message;
-  daemon.Signal(SIGTERM);
-  EXPECT_EQ(daemon.Wait(10), 0);
-  EXPECT_TRUE(IntegrityOk());
+  StopCleanly(daemon);
 }
 
 TEST_F(FaultInjection, KillInTheMiddleOfACheckpointWriteLosesNothing) {

@@ -2,8 +2,6 @@
 // config or at least one located error, never an exception across the border, never a crash. A
 // refusal without errors, or an error whose line or column is negative, aborts.
 #include <cstdint>
-#include <cstdio>
-#include <cstdlib>
 #include <string>
 #include <vector>
 
@@ -16,14 +14,10 @@ int ConfigLoaderOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string text(reinterpret_cast<const char*>(data), size);
   std::vector<plateau::ConfigError> errors;
   const auto config = plateau::ParseRunConfig(text, "/nonexistent/fuzz/run.yaml", &errors);
-  if (!config && errors.empty()) {
-    std::fprintf(stderr, "config refused without an error\n");
-    std::abort();
-  }
+  if (!config && errors.empty()) ContractBroken("config loader", "refused without an error");
   for (const plateau::ConfigError& e : errors) {
     if (e.line < 0 || e.column < 0 || e.message.empty()) {
-      std::fprintf(stderr, "config error without a place or a message\n");
-      std::abort();
+      ContractBroken("config loader", "an error without a place or a message");
     }
   }
   return 0;

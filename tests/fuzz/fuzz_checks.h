@@ -7,8 +7,17 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <cstdio>
+#include <cstdlib>
 
 namespace plateau::fuzz {
+
+// A contract broke: says which on stderr and aborts, which libFuzzer reports as a crash and the
+// replay test as a dead test binary.
+[[noreturn]] inline void ContractBroken(const char* target, const char* what) {
+  std::fprintf(stderr, "%s contract broken: %s\n", target, what);
+  std::abort();
+}
 
 int RowParserOneInput(const std::uint8_t* data, std::size_t size);
 int ConfigLoaderOneInput(const std::uint8_t* data, std::size_t size);

@@ -2,8 +2,6 @@
 // whatever arrives on the socket, it returns a request or an error message, never crashes, never
 // recurses without bound. A request without an error, or an error without a message, aborts.
 #include <cstdint>
-#include <cstdio>
-#include <cstdlib>
 #include <string>
 #include <string_view>
 
@@ -16,10 +14,7 @@ int QueryRequestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string_view line(reinterpret_cast<const char*>(data), size);
   std::string error;
   const auto request = plateau::ParseQueryRequest(line, &error);
-  if (!request && error.empty()) {
-    std::fprintf(stderr, "query request refused without a reason\n");
-    std::abort();
-  }
+  if (!request && error.empty()) ContractBroken("query request", "refused without a reason");
   return 0;
 }
 

@@ -6,8 +6,6 @@
 // uninterrupted one. A broken contract aborts, which libFuzzer reports as a crash.
 #include <cmath>
 #include <cstdint>
-#include <cstdio>
-#include <cstdlib>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -16,6 +14,8 @@
 #include "tests/fuzz/fuzz_checks.h"
 
 namespace {
+
+[[noreturn]] void Fail(const char* what) { plateau::fuzz::ContractBroken("row parser", what); }
 
 struct Recorded {
   std::vector<std::string> columns;
@@ -40,11 +40,6 @@ class RecordingSink : public plateau::RowSink {
     out_->bad_lines.push_back(line);
   }
 
-  [[noreturn]] static void Fail(const char* what) {
-    std::fprintf(stderr, "row parser contract broken: %s\n", what);
-    std::abort();
-  }
-
  private:
   Recorded* out_;
 };
@@ -61,7 +56,7 @@ Recorded FeedInChunks(std::string_view bytes, std::size_t chunk, plateau::RowPar
   for (std::size_t at = 0; at < bytes.size(); at += chunk)
     parser.Feed(bytes.substr(at, chunk), sink);
   if (parser.consumed_bytes() + parser.pending_bytes() != bytes.size()) {
-    RecordingSink::Fail("consumed and pending bytes do not add up to the input");
+    Fail("consumed and pending bytes do not add up to the input");
   }
   return out;
 }
@@ -79,11 +74,11 @@ int RowParserOneInput(const std::uint8_t* data, std::size_t size) {
   const Recorded whole = FeedInChunks(bytes, bytes.size() + 1, whole_parser);
   plateau::RowParser chunked_parser;
   if (!Same(whole, FeedInChunks(bytes, chunk, chunked_parser))) {
-    RecordingSink::Fail("chunked feeding differs from feeding the whole");
+    Fail("chunked feeding differs from feeding the whole");
   }
   plateau::RowParser byte_parser;
   if (!Same(whole, FeedInChunks(bytes, 1, byte_parser))) {
-    RecordingSink::Fail("byte-by-byte feeding differs from feeding the whole");
+    Fail("byte-by-byte feeding differs from feeding the whole");
   }
 
   // A restart: the first parser stops somewhere, a new one resumes at its consumed offset.
@@ -102,10 +97,9 @@ int RowParserOneInput(const std::uint8_t* data, std::size_t size) {
   joined.row_lines.insert(joined.row_lines.end(), after.row_lines.begin(), after.row_lines.end());
   joined.values.insert(joined.values.end(), after.values.begin(), after.values.end());
   joined.bad_lines.insert(joined.bad_lines.end(), after.bad_lines.begin(), after.bad_lines.end());
-  if (!Same(whole, joined))
-    RecordingSink::Fail("a resumed parser differs from an uninterrupted one");
+  if (!Same(whole, joined)) Fail("a resumed parser differs from an uninterrupted one");
   if (resumed.rows() != whole_parser.rows() || resumed.bad_lines() != whole_parser.bad_lines()) {
-    RecordingSink::Fail("a resumed parser's counters differ from an uninterrupted one's");
+    Fail("a resumed parser's counters differ from an uninterrupted one's");
   }
   return 0;
 }
