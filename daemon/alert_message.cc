@@ -72,10 +72,13 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
   if ((e.kind == "run_met" || e.kind == "met") && std::isfinite(remaining) && remaining > 0 &&
       e.progress_rate > 0 && std::isfinite(c.cores)) {
     const double hours = remaining / e.progress_rate;
+    // Whole core-hours, or tenths below ten: a short run must not read "saves about 0".
+    const double saved = hours * c.cores;
+    const double shown = saved >= 10.0 ? std::round(saved) : std::round(10.0 * saved) / 10.0;
     b += "The run was planned to reach time " + FormatValue(c.planned_end_time) + "; at the " +
          "observed " + FormatValue(e.progress_rate) + " time units per hour that is " +
          FormatDuration(hours * 3600.0) + " more on " + FormatValue(c.cores) +
-         " cores: stopping now saves about " + FormatValue(std::round(hours * c.cores)) +
+         " cores: stopping now saves about " + FormatValue(shown) +
          " core-hours.\n";
   }
   if (e.kind != "run_met" && std::isfinite(e.remaining_time) && e.remaining_time > 0) {

@@ -42,6 +42,15 @@ TEST(AlertMessage, CoreHoursSavedFollowFromThePlannedEndAndTheRate) {
   EXPECT_NE(m.body.find("not a validated one"), std::string::npos);
 }
 
+TEST(AlertMessage, SmallSavingsAreShownInTenthsNotAsZero) {
+  // 1 time unit left at 20 per hour on 4 cores: 0.05 h x 4 = 0.2 core-hours.
+  RunConfig c = Ch420Run();
+  c.planned_end_time = 161.0;
+  c.cores = 4.0;
+  const AlertMessage m = ComposeAlert(RunMet(), c);
+  EXPECT_NE(m.body.find("stopping now saves about 0.2 core-hours"), std::string::npos) << m.body;
+}
+
 TEST(AlertMessage, NoPlannedEndMeansNoSavingsClaimed) {
   RunConfig c = Ch420Run();
   c.planned_end_time = std::nan("");
