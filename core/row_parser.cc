@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstring>
+#include <limits>
 
 namespace plateau {
 namespace {
@@ -69,6 +70,29 @@ std::string Printable(std::string_view token) {
   return out;
 }
 
+// Position of the ')' closing the '(' at `open`; npos when it is not closed on the line.
+std::size_t MatchingParenthesis(std::string_view line, std::size_t open) {
+  int depth = 0;
+  for (std::size_t i = open; i < line.size(); ++i) {
+    if (line[i] == '(') ++depth;
+    if (line[i] == ')' && --depth == 0) return i;
+  }
+  return std::string_view::npos;
+}
+
+// The suffix of component k of an n-member group: x y z for a vector, the six independent
+// components of a symmetric tensor in the order solvers write them (xx xy xz yy yz zz), the nine
+// of a tensor row by row; a 0-based number for any other size. Stable: configs name columns by it.
+std::string ComponentSuffix(std::size_t n, std::size_t k) {
+  static const char* const kVector[] = {"x", "y", "z"};
+  static const char* const kSymmTensor[] = {"xx", "xy", "xz", "yy", "yz", "zz"};
+  static const char* const kTensor[] = {"xx", "xy", "xz", "yx", "yy", "yz", "zx", "zy", "zz"};
+  if (n == 3) return std::string(".") + kVector[k];
+  if (n == 6) return std::string(".") + kSymmTensor[k];
+  if (n == 9) return std::string(".") + kTensor[k];
+  return "." + std::to_string(k);
+}
+
 // Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
 // by spaces); `tokens` expands groups.
 struct HeaderTokens {
@@ -100,7 +124,19 @@ HeaderTokens TokenizeHeader(std::string_view line) {
       continue;
     }
     std::size_t j = i;
-    while (j < line.size() && !IsSeparator(line[j])) ++j;
+    while (j < line.size()) {
+      if (line[j] == '(' && j > i) {
+        // Parentheses attached to a name are part of it: `areaAverage(wallShearStress)` is one
+        // field, the surface average of a vector, not a name followed by a group.
+        const std::size_t close = MatchingParenthesis(line, j);
+        if (close == std::string_view::npos) break;
+        j = close + 1;
+      } else if (IsSeparator(line[j])) {
+        break;
+      } else {
+        ++j;
+      }
+    }
     std::string token(line.substr(i, j - i));
     h.tokens.push_back(token);
     if (in_group) {
@@ -203,6 +239,7 @@ void RowParser::ParseLine(std::string_view line, RowSink& sink) {
   const std::string_view trimmed = TrimmedLeft(line);
   if (!trimmed.empty() && trimmed[0] == '#') {
     if (!has_columns()) {
+      probe_header_.ReadCommentLine(trimmed.substr(1));
       HeaderTokens h = TokenizeHeader(trimmed.substr(1));
       if (!h.tokens.empty()) {
         last_comment_tokens_ = std::move(h.tokens);
@@ -250,26 +287,64 @@ void RowParser::HandleHeaderOrFirstRow(std::string_view line, RowSink& sink) {
     return;
   }
   column_count_ = values_.size();
-  const std::vector<std::size_t> sizes = FieldSizes(line);
+  NameColumns(FieldSizes(line));
+  sink.OnColumns(names_);
+  ++rows_;
+  sink.OnRow(line_, values_.data());
+}
+
+void RowParser::NameColumns(const std::vector<std::size_t>& sizes) {
+  if (NameProbeColumns(sizes)) return;
   if (last_comment_tokens_.size() == column_count_) {
     names_ = last_comment_tokens_;
   } else if (last_comment_fields_.size() == sizes.size()) {
-    // One name per field: a vector group `U` written as (a b c) becomes U[0] U[1] U[2].
+    // One name per field: a vector group `U` written as (a b c) becomes U.x U.y U.z.
     for (std::size_t f = 0; f < sizes.size(); ++f) {
       if (sizes[f] == 1) {
         names_.push_back(last_comment_fields_[f]);
       } else {
         for (std::size_t k = 0; k < sizes[f]; ++k) {
-          names_.push_back(last_comment_fields_[f] + "[" + std::to_string(k) + "]");
+          names_.push_back(last_comment_fields_[f] + ComponentSuffix(sizes[f], k));
         }
       }
     }
   } else {
     for (std::size_t c = 0; c < column_count_; ++c) names_.push_back("col" + std::to_string(c + 1));
   }
-  sink.OnColumns(names_);
-  ++rows_;
-  sink.OnRow(line_, values_.data());
+}
+
+bool RowParser::NameProbeColumns(const std::vector<std::size_t>& sizes) {
+  // The layout: location lines, a probe-number list, then a line naming only the time column;
+  // each row is the time and one field per probe (a value, or a group for a vector or tensor).
+  const std::vector<int> ids = probe_header_.ColumnProbeIds();
+  if (ids.empty() || sizes.size() != ids.size() + 1 || sizes[0] != 1) return false;
+  std::string time_name;
+  if (last_comment_tokens_.size() == 1) {
+    time_name = last_comment_tokens_[0];
+  } else if (last_comment_tokens_.size() == ids.size() + 1 && last_comment_tokens_[0] == "Probe") {
+    time_name = "Time";  // the probe-number list was the last header line
+  } else {
+    return false;
+  }
+  names_.push_back(time_name);
+  for (std::size_t p = 0; p < ids.size(); ++p) {
+    const std::string probe = field_name_ + "[" + std::to_string(ids[p]) + "]";
+    if (sizes[p + 1] == 1) {
+      names_.push_back(probe);
+    } else {
+      for (std::size_t k = 0; k < sizes[p + 1]; ++k) {
+        names_.push_back(probe + ComponentSuffix(sizes[p + 1], k));
+      }
+    }
+    ProbeLocation location;
+    location.id = ids[p];
+    location.position.fill(std::numeric_limits<double>::quiet_NaN());
+    for (const ProbeLocation& l : probe_header_.locations()) {
+      if (l.id == ids[p]) location = l;
+    }
+    probes_.push_back(location);
+  }
+  return true;
 }
 
 bool RowParser::ParseNumbers(std::string_view line, std::string* reason) {

@@ -1,6 +1,7 @@
 // Turns the bytes of a delimited-text probe file into numeric rows: whitespace, comma, semicolon or
 // tab separators; `#` comment lines; column names from the last comment line before the data (or a
-// first line of names); `(a b c)` vector groups expanded to columns. Pure: bytes in, rows out, no I/O.
+// first line of names), or from a probe description over several comment lines; `(a b c)` vector
+// groups expanded to columns. Pure: bytes in, rows out, no I/O.
 // Not thread-safe: one parser per file, fed by one owner.
 #ifndef PLATEAU_CORE_ROW_PARSER_H_
 #define PLATEAU_CORE_ROW_PARSER_H_
@@ -9,6 +10,8 @@
 #include <string>
 #include <string_view>
 #include <vector>
+
+#include "core/probe_header.h"
 
 namespace plateau {
 
@@ -34,6 +37,13 @@ class RowParser {
   // arrives in a later call.
   void Feed(std::string_view bytes, RowSink& sink);
 
+  // The quantity a probe file holds when only its file name says it (`p`, `U`): probe columns
+  // are then named `U[3].x` (probe 3, x component) and `p[3]`. Default "probe". Set before Feed.
+  void set_field_name(std::string name) { field_name_ = std::move(name); }
+  // The probes of a probe-description header, one per probe field in column order; empty for
+  // other layouts and after Resume (the header lines are behind the resume offset).
+  const std::vector<ProbeLocation>& probes() const { return probes_; }
+
   bool has_columns() const { return column_count_ > 0; }
   const std::vector<std::string>& column_names() const { return names_; }
   std::uint64_t lines() const { return line_; }
@@ -51,6 +61,10 @@ class RowParser {
  private:
   void ParseLine(std::string_view line, RowSink& sink);
   void HandleHeaderOrFirstRow(std::string_view line, RowSink& sink);
+  // Column names for the first data row's fields (sizes: 1 per value, n per `(..)` group).
+  void NameColumns(const std::vector<std::size_t>& sizes);
+  // Names from a probe description, when it fits the fields; false otherwise.
+  bool NameProbeColumns(const std::vector<std::size_t>& sizes);
   // Splits on separators and parentheses; returns false on a token that is not a finite number,
   // with *reason set. values_ receives the numbers.
   bool ParseNumbers(std::string_view line, std::string* reason);
@@ -60,6 +74,9 @@ class RowParser {
   std::size_t column_count_ = 0;
   std::vector<std::string> last_comment_tokens_;  // of the last non-empty comment line before data
   std::vector<std::string> last_comment_fields_;  // the same, with vector groups kept whole
+  ProbeHeader probe_header_;
+  std::string field_name_ = "probe";
+  std::vector<ProbeLocation> probes_;
   std::vector<double> values_;
   std::string pending_;
   std::size_t pending_size_ = 0;  // bytes of the unterminated line so far, skipped ones included

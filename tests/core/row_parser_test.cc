@@ -2,6 +2,7 @@
 
 #include <gtest/gtest.h>
 
+#include <array>
 #include <string>
 #include <vector>
 
@@ -53,12 +54,96 @@ TEST(RowParser, CsvFirstLineOfNamesWithoutHash) {
   EXPECT_EQ(c.rows.size(), 2u);
 }
 
-TEST(RowParser, VectorGroupsExpandAndTakeIndexedNames) {
+TEST(RowParser, VectorGroupsExpandAndTakeComponentNames) {
   const Collected c = Parse("# Time U p\n0.5 (1 2 3) 7\n");
-  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "U[0]", "U[1]", "U[2]", "p"}));
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "U.x", "U.y", "U.z", "p"}));
   EXPECT_EQ(c.rows[0], (std::vector<double>{0.5, 1, 2, 3, 7}));
   const Collected named = Parse("# t (ux uy uz)\n0.5 (1 2 3)\n");
   EXPECT_EQ(named.names, (std::vector<std::string>{"t", "ux", "uy", "uz"}));
+}
+
+TEST(RowParser, SymmetricTensorGroupsTakeTheirSixComponents) {
+  const Collected c = Parse("# t R\n0.5 (1 2 3 4 5 6)\n");
+  EXPECT_EQ(c.names,
+            (std::vector<std::string>{"t", "R.xx", "R.xy", "R.xz", "R.yy", "R.yz", "R.zz"}));
+}
+
+// The probe layout: a location line per probe, the probe-number list, a line naming the time
+// column only, then the time and one (x y z) group per probe. Our own invented numbers.
+constexpr const char* kVectorProbes =
+    "# Probe 0 (2.05 0.0048 1.0333)\n"
+    "# Probe 1 (2.05 0.0120 1.0333)\n"
+    "# Probe 2 (2.05 0.0310 1.0333)\n"
+    "#           Probe             0             1             2\n"
+    "#            Time\n"
+    "0.002   (0.41 0.002 -0.01)   (0.63 0.004 0.02)   (0.80 -0.003 0.00)\n"
+    "0.004   (0.42 0.001 -0.02)   (0.64 0.005 0.01)   (0.81 -0.002 0.01)\n";
+
+TEST(RowParser, ProbeHeaderNamesEachProbeAndComponentAndKeepsLocations) {
+  RowParser parser;
+  parser.set_field_name("U");
+  Collected c;
+  parser.Feed(kVectorProbes, c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "U[0].x", "U[0].y", "U[0].z", "U[1].x",
+                                               "U[1].y", "U[1].z", "U[2].x", "U[2].y",
+                                               "U[2].z"}));
+  ASSERT_EQ(c.rows.size(), 2u);
+  EXPECT_EQ(c.rows[1][4], 0.64);
+  ASSERT_EQ(parser.probes().size(), 3u);
+  EXPECT_EQ(parser.probes()[1].id, 1);
+  EXPECT_EQ(parser.probes()[1].position, (std::array<double, 3>{2.05, 0.0120, 1.0333}));
+  EXPECT_EQ(parser.probes()[2].position[1], 0.0310);
+  EXPECT_TRUE(c.bad.empty());
+}
+
+TEST(RowParser, ScalarProbesAreNamedByProbeNumber) {
+  RowParser parser;
+  parser.set_field_name("p");
+  Collected c;
+  parser.Feed(
+      "# Probe 4 (0.5 0.01 0)\n# Probe 7 (0.5 0.02 0)\n#  Probe  4  7\n#  Time\n"
+      "0.1  -1.5e-02  3.25e-03\n",
+      c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "p[4]", "p[7]"}));
+  ASSERT_EQ(parser.probes().size(), 2u);
+  EXPECT_EQ(parser.probes()[1].id, 7);
+  EXPECT_EQ(parser.probes()[1].position[1], 0.02);
+}
+
+TEST(RowParser, ProbeListWithoutATimeLineNamesTheTimeColumnTime) {
+  RowParser parser;
+  parser.set_field_name("T");
+  Collected c;
+  parser.Feed("# Probe 0 (0 0 0)\n# Probe 1 (0 1 0)\n# Probe 0 1\n0.1 300 301\n", c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "T[0]", "T[1]"}));
+}
+
+TEST(RowParser, ProbeHeaderThatDoesNotFitTheRowsFallsBackToPlainNames) {
+  RowParser parser;
+  Collected c;
+  parser.Feed("# Probe 0 (0 0 0)\n# Probe 1 (0 1 0)\n# Time\n0.1 300 301 302\n", c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"col1", "col2", "col3", "col4"}));
+  EXPECT_TRUE(parser.probes().empty());
+}
+
+TEST(RowParser, SurfaceAverageHeaderNamesTheThreeComponentsOfItsOneField) {
+  const Collected c = Parse(
+      "# Region type : patch lowerWall\n"
+      "# Faces       : 1200\n"
+      "# Area        : 8.000000e+00\n"
+      "# Time        \tareaAverage(wallShearStress)\n"
+      "0.002\t(-2.813000e-04 1.250000e-07 -3.500000e-08)\n");
+  EXPECT_EQ(c.names,
+            (std::vector<std::string>{"Time", "areaAverage(wallShearStress).x",
+                                      "areaAverage(wallShearStress).y",
+                                      "areaAverage(wallShearStress).z"}));
+  ASSERT_EQ(c.rows.size(), 1u);
+  EXPECT_EQ(c.rows[0][1], -2.813e-04);
+}
+
+TEST(RowParser, NestedCallsInAHeaderNameStayOneName) {
+  const Collected c = Parse("# Time max(mag(U)) volAverage(p)\n1 2 3\n");
+  EXPECT_EQ(c.names, (std::vector<std::string>{"Time", "max(mag(U))", "volAverage(p)"}));
 }
 
 TEST(RowParser, DefaultNamesWhenNoHeaderFits) {

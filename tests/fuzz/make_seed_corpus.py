@@ -24,6 +24,15 @@ PROBE_FILES = {
     "crlf_and_blank": "# time x\r\n\r\n0 1\r\n1 2\r\n",
     "no_header": "0 1 2\n1 2 3\n2 3 4\n",
     "chatter": "# time x\n0 1\n*** time step reduced ***\n1 2\n",
+    # Multi-line probe descriptions and a surface average (our own invented numbers).
+    "probe_vectors": "# Probe 0 (2.05 0.0048 1.0333)\n# Probe 1 (2.05 0.012 1.0333)\n"
+    "#   Probe   0   1\n#   Time\n0.002 (0.41 0.002 -0.01) (0.63 0.004 0.02)\n"
+    "0.004 (0.42 0.001 -0.02) (0.64 0.005 0.01)\n",
+    "probe_scalars": "# Probe 4 (0.5 0.01 0)\n# Probe 7 (0.5 0.02 0) # Not Found\n"
+    "#  Probe  4  7\n#  Time\n0.1 -1.5e-02 3.25e-03\n0.2 -1.4e-02 3.5e-03\n",
+    "surface_average": "# Region type : patch lowerWall\n# Faces : 1200\n# Area : 8\n"
+    "# Time\tareaAverage(wallShearStress)\n0.002\t(-2.81e-04 1.2e-07 -3.5e-08)\n"
+    "0.004\t(-2.79e-04 1.1e-07 -3.1e-08)\n",
 }
 
 CONFIGS = {
