@@ -220,7 +220,7 @@ std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
     Error(node, "a source must be a map with name and files");
     return std::nullopt;
   }
-  CheckKeys(node, {"name", "files", "time_column", "columns"}, "a source");
+  CheckKeys(node, {"name", "files", "time_column", "columns", "scale"}, "a source");
   SourceConfig s;
   bool ok = true;
   if (!node["name"]) {
@@ -243,6 +243,23 @@ std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
     if (auto t = Text(node["time_column"], "time_column")) s.time_column = *t;
   }
   if (node["columns"]) s.columns = TextList(node["columns"], "columns");
+  if (const YAML::Node scale = node["scale"]) {
+    if (!scale.IsMap()) {
+      Error(scale, "scale must map columns to factors, such as {\"tau.x\": -1}");
+      ok = false;
+    } else {
+      for (auto it = scale.begin(); it != scale.end(); ++it) {
+        const auto factor = Number(it->second, "a scale factor", -1e300, 1e300, false,
+                                   "a number other than 0, such as -1 or a density");
+        if (!factor || *factor == 0.0) {
+          if (factor) Error(it->second, "a scale factor of 0 would erase the column");
+          ok = false;
+          continue;
+        }
+        s.scales.push_back({it->first.Scalar(), *factor});
+      }
+    }
+  }
   return ok ? std::optional<SourceConfig>(s) : std::nullopt;
 }
 
@@ -608,8 +625,8 @@ std::optional<ProfileConfig> Loader::LoadProfile(const YAML::Node& node, RunConf
     return std::nullopt;
   }
   CheckKeys(node,
-            {"name", "source", "positions", "columns", "first_index", "quantities", "target",
-             "targets", "reference", "momentum_balance"},
+            {"name", "source", "positions", "wall_at", "columns", "first_index", "quantities",
+             "target", "targets", "reference", "momentum_balance"},
             "a profile");
   ProfileConfig p;
   bool ok = true;
@@ -635,8 +652,19 @@ std::optional<ProfileConfig> Loader::LoadProfile(const YAML::Node& node, RunConf
     Error(node["positions"], "positions must list the wall distance of each point (at least two)");
     return std::nullopt;
   }
+  // With wall_at, positions are coordinates (from a probe file's header, say) and the wall
+  // distance is their distance from the wall's coordinate.
+  double wall_at = 0.0;
+  const bool coordinates = static_cast<bool>(node["wall_at"]);
+  if (coordinates) {
+    const auto w = Number(node["wall_at"], "wall_at", -1e300, 1e300, false,
+                          "the wall's coordinate along the probe line");
+    if (!w) return std::nullopt;
+    wall_at = *w;
+  }
   for (const YAML::Node& y : node["positions"]) {
     if (auto v = Number(y, "a position", -1e300, 1e300, false, "a wall distance")) {
+      if (coordinates) *v = std::fabs(*v - wall_at);
       if (!p.positions.empty() && *v <= p.positions.back()) {
         Error(y, "positions must increase away from the wall");
         ok = false;

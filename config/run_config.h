@@ -9,6 +9,7 @@
 
 #include "core/convergence_tracker.h"
 #include "core/evaluation_options.h"
+#include "core/source_statistics.h"
 #include "core/statistic_request.h"
 
 namespace plateau {
@@ -18,6 +19,8 @@ struct SourceConfig {
   std::string files;        // glob, absolute (resolved against the config file's folder)
   std::string time_column;  // name or 1-based number; empty: the first column
   std::vector<std::string> columns;  // names to use instead of the files' header; empty: header
+  // Factors applied to columns before any statistic (a sign convention, a density).
+  std::vector<SourceStatistics::ColumnScale> scales;
 };
 
 struct StatisticConfig {
@@ -49,7 +52,7 @@ struct WallUnitsConfig {
 struct ProfileConfig {
   std::string name;
   std::string source;
-  std::vector<double> positions;  // wall distance of each point
+  std::vector<double> positions;  // wall distance of each point (|coordinate - wall_at|)
   std::vector<std::string> quantities;
   std::vector<std::pair<std::string, std::string>> references;  // quantity -> file (absolute)
   bool momentum_balance = false;

@@ -28,7 +28,7 @@ int ResolveColumn(const std::vector<std::string>& columns, const std::string& co
 }
 
 SourceStatistics::SourceStatistics(std::vector<std::string> columns, int time_index)
-    : columns_(std::move(columns)), time_index_(time_index) {}
+    : columns_(std::move(columns)), time_index_(time_index), scales_(columns_.size(), 1.0) {}
 
 std::optional<SourceStatistics> SourceStatistics::Make(
     std::vector<std::string> columns, const std::string& time_column,
@@ -127,12 +127,29 @@ std::vector<StatisticRequest> SourceStatistics::MeansOfEveryColumn(
   return requests;
 }
 
+bool SourceStatistics::SetScales(const std::vector<ColumnScale>& scales, std::string* error) {
+  std::vector<double> factors(columns_.size(), 1.0);
+  for (const ColumnScale& s : scales) {
+    const int index = ResolveColumn(columns_, s.column);
+    if (index < 0) {
+      *error = "scale names column '" + s.column + "', which the files do not have";
+      return false;
+    }
+    factors[index] = s.factor;
+  }
+  scales_ = std::move(factors);
+  return true;
+}
+
 bool SourceStatistics::Add(const double* row) {
-  const double time = row[time_index_];
+  // Multiplying by an unset factor of exactly 1 leaves every value as it was.
+  const double time = row[time_index_] * scales_[time_index_];
   if (!gate_.Admit(time)) return false;
   double values[MomentLayout::kMaxSignals];
   for (Feed& f : feeds_) {
-    for (std::size_t i = 0; i < f.columns.size(); ++i) values[i] = row[f.columns[i]];
+    for (std::size_t i = 0; i < f.columns.size(); ++i) {
+      values[i] = row[f.columns[i]] * scales_[f.columns[i]];
+    }
     f.history->Add(time, values);
   }
   return true;

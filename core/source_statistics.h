@@ -38,6 +38,15 @@ class SourceStatistics {
   static std::vector<StatisticRequest> MeansOfEveryColumn(const std::vector<std::string>& columns,
                                                           const std::string& time_column);
 
+  // A factor applied to a column before any statistic sees it: -1 for a solver's sign convention,
+  // a density to turn a kinematic value into pascals. Columns by name or 1-based number; false
+  // with *error for an unknown column (the scales set before stay).
+  struct ColumnScale {
+    std::string column;
+    double factor = 1.0;
+  };
+  bool SetScales(const std::vector<ColumnScale>& scales, std::string* error);
+
   // Adds one row of every column. Returns false when its time is not after the last admitted time
   // (restart overlap): the row is then counted in gate() and used by no statistic.
   bool Add(const double* row);
@@ -81,6 +90,7 @@ class SourceStatistics {
   std::vector<std::size_t> request_of_;
   std::vector<Problem> problems_;
   std::vector<Feed> feeds_;
+  std::vector<double> scales_;  // one factor per column, 1 unless set
 };
 
 // Position of `column` (a name, else a 1-based number) in `columns`; -1 when neither matches.

@@ -190,32 +190,16 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
   json.EndObject();
 }
 
-std::string FormatAnalysisTable(const AnalysisResult& result) {
-  std::string out;
-  for (const FileSummary& f : result.files) out += FileLine(f) + "\n";
-  out += FormatPercent(result.options.confidence) + " confidence, warm-up " +
-         WarmupDescription(result.options) +
-         ", " + std::to_string(result.options.batches) + " batches, time column '" +
-         result.time_column + "'\n\n";
-  using A = TextTable::Align;
-  TextTable table({{"statistic", A::kLeft},
-                   {"value", A::kRight},
-                   {"± half-width", A::kRight},
-                   {"relative", A::kRight},
-                   {"τ [samples]", A::kRight},
-                   {"n_eff", A::kRight},
-                   {"warm-up ends", A::kRight},
-                   {"drift", A::kLeft},
-                   {"decided by", A::kLeft}});
-  for (const StatisticEstimate& e : result.estimates) AddStatisticRow(table, e);
-  out += table.Render();
+namespace {
 
-  std::vector<std::string> notes = result.notes;
-  for (const StatisticEstimate& e : result.estimates) {
+// Notes of one source: its own, its statistics' states and warnings, its files' bad lines.
+std::vector<std::string> SourceNotes(const SourceAnalysis& source) {
+  std::vector<std::string> notes = source.notes;
+  for (const StatisticEstimate& e : source.estimates) {
     if (!e.state_reason.empty()) notes.push_back(e.name + ": " + e.state_reason);
     for (const std::string& w : e.warnings) notes.push_back(e.name + ": " + w);
   }
-  for (const FileSummary& f : result.files) {
+  for (const FileSummary& f : source.files) {
     for (const std::string& bad : f.bad_line_examples) notes.push_back("bad line " + bad);
     if (f.bad_lines > f.bad_line_examples.size()) {
       notes.push_back(f.path + ": " + std::to_string(f.bad_lines - f.bad_line_examples.size()) +
@@ -226,6 +210,28 @@ std::string FormatAnalysisTable(const AnalysisResult& result) {
                                "was not used");
     }
   }
+  return notes;
+}
+
+std::string SourceSection(const SourceAnalysis& source, const EvaluationOptions& options) {
+  std::string out;
+  for (const FileSummary& f : source.files) out += FileLine(f) + "\n";
+  out += FormatPercent(options.confidence) + " confidence, warm-up " +
+         WarmupDescription(options) + ", " + std::to_string(options.batches) +
+         " batches, time column '" + source.time_column + "'\n\n";
+  using A = TextTable::Align;
+  TextTable table({{"statistic", A::kLeft},
+                   {"value", A::kRight},
+                   {"± half-width", A::kRight},
+                   {"relative", A::kRight},
+                   {"τ [samples]", A::kRight},
+                   {"n_eff", A::kRight},
+                   {"warm-up ends", A::kRight},
+                   {"drift", A::kLeft},
+                   {"decided by", A::kLeft}});
+  for (const StatisticEstimate& e : source.estimates) AddStatisticRow(table, e);
+  out += table.Render();
+  const std::vector<std::string> notes = SourceNotes(source);
   if (!notes.empty()) {
     out += "\nnotes:\n";
     for (const std::string& n : notes) out += "  " + n + "\n";
@@ -233,38 +239,97 @@ std::string FormatAnalysisTable(const AnalysisResult& result) {
   return out;
 }
 
+}  // namespace
+
+std::string FormatAnalysisTable(const AnalysisResult& result) {
+  // One section per series; a single series reads as it always did, without a heading.
+  std::string out;
+  const bool headings = result.sources.size() > 1;
+  for (std::size_t i = 0; i < result.sources.size(); ++i) {
+    const SourceAnalysis& source = result.sources[i];
+    if (headings) {
+      out += std::string(i == 0 ? "" : "\n") + "== source " + source.name + ": " +
+             source.series + " ==\n";
+    }
+    out += SourceSection(source, result.options);
+  }
+  if (!result.left_out.empty() || !result.notes.empty()) {
+    out += "\nfiles:\n";
+    for (const std::string& n : result.notes) out += "  note: " + n + "\n";
+    for (const LeftOutFile& f : result.left_out) {
+      out += "  left out " + f.path + ": " + f.reason + "\n";
+    }
+  }
+  return out;
+}
+
 std::string FormatAnalysisJson(const AnalysisResult& result) {
+  // The keys of a one-series analysis stay where they always were (files, time_column,
+  // statistics, notes); each file and statistic also carries its source, and `sources` and
+  // `left_out` describe the grouping.
   JsonWriter json;
   json.BeginObject();
   json.Key("files");
   json.BeginArray();
-  for (const FileSummary& f : result.files) {
-    json.BeginObject();
-    json.Field("path", f.path);
-    json.Field("rows", f.rows);
-    json.Field("bad_lines", f.bad_lines);
-    json.Field("restart_overlap", f.restart_overlap);
-    json.Field("first_time", f.first_time);
-    json.Field("last_time", f.last_time);
-    json.Field("unterminated_last_line", f.unterminated_last_line);
-    json.EndObject();
+  for (const SourceAnalysis& source : result.sources) {
+    for (const FileSummary& f : source.files) {
+      json.BeginObject();
+      json.Field("path", f.path);
+      json.Field("source", source.name);
+      json.Field("rows", f.rows);
+      json.Field("bad_lines", f.bad_lines);
+      json.Field("restart_overlap", f.restart_overlap);
+      json.Field("first_time", f.first_time);
+      json.Field("last_time", f.last_time);
+      json.Field("unterminated_last_line", f.unterminated_last_line);
+      json.EndObject();
+    }
   }
   json.EndArray();
-  json.Field("time_column", result.time_column);
+  json.Field("time_column", result.sources.empty() ? "" : result.sources.front().time_column);
   json.Field("confidence", result.options.confidence);
   json.Field("batches", result.options.batches);
   WriteWarmup(json, result.options);
+  json.Key("sources");
+  json.BeginArray();
+  for (const SourceAnalysis& source : result.sources) {
+    json.BeginObject();
+    json.Field("name", source.name);
+    json.Field("series", source.series);
+    json.Field("time_column", source.time_column);
+    json.Key("columns");
+    json.BeginArray();
+    for (const std::string& c : source.columns) json.String(c);
+    json.EndArray();
+    json.EndObject();
+  }
+  json.EndArray();
   json.Key("statistics");
   json.BeginArray();
-  for (std::size_t i = 0; i < result.estimates.size(); ++i) {
+  for (const SourceAnalysis& source : result.sources) {
+    for (std::size_t i = 0; i < source.estimates.size(); ++i) {
+      json.BeginObject();
+      json.Field("source", source.name);
+      WriteEstimateFields(json, source.estimates[i], source.statistic_columns[i]);
+      json.EndObject();
+    }
+  }
+  json.EndArray();
+  json.Key("left_out");
+  json.BeginArray();
+  for (const LeftOutFile& f : result.left_out) {
     json.BeginObject();
-    WriteEstimateFields(json, result.estimates[i], result.statistic_columns[i]);
+    json.Field("path", f.path);
+    json.Field("reason", f.reason);
     json.EndObject();
   }
   json.EndArray();
   json.Key("notes");
   json.BeginArray();
   for (const std::string& n : result.notes) json.String(n);
+  for (const SourceAnalysis& source : result.sources) {
+    for (const std::string& n : source.notes) json.String(n);
+  }
   json.EndArray();
   json.EndObject();
   return json.text() + "\n";

@@ -1,4 +1,4 @@
-// What one `plateau analyze` run found: per file what was read, per statistic its estimate.
+// What one `plateau analyze` run found: per series (source) the files read and the estimates.
 // Plain data handed from the command to the report; no behaviour.
 #ifndef PLATEAU_DAEMON_ANALYSIS_RESULT_H_
 #define PLATEAU_DAEMON_ANALYSIS_RESULT_H_
@@ -10,6 +10,7 @@
 
 #include "core/evaluation_options.h"
 #include "core/statistic_estimate.h"
+#include "daemon/series_catalog.h"
 
 namespace plateau {
 
@@ -24,14 +25,23 @@ struct FileSummary {
   bool unterminated_last_line = false;
 };
 
-struct AnalysisResult {
-  std::vector<FileSummary> files;
+// One series: its segments as read, and its statistics.
+struct SourceAnalysis {
+  std::string name;    // unique among the result's sources, from the series' folder
+  std::string series;  // the glob that matches its segments
+  std::vector<FileSummary> files;  // in the order they were read (time order)
   std::vector<std::string> columns;
   std::string time_column;
-  EvaluationOptions options;
   std::vector<StatisticEstimate> estimates;
   std::vector<std::vector<std::string>> statistic_columns;  // per estimate
   std::vector<std::string> notes;  // restart overlaps and the like, one sentence each
+};
+
+struct AnalysisResult {
+  EvaluationOptions options;
+  std::vector<SourceAnalysis> sources;
+  std::vector<LeftOutFile> left_out;  // files given that are not time series, with the reason
+  std::vector<std::string> notes;     // what was guessed in grouping the files
 };
 
 }  // namespace plateau

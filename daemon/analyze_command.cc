@@ -3,7 +3,9 @@
 #include <algorithm>
 #include <charconv>
 #include <cmath>
+#include <filesystem>
 #include <limits>
+#include <map>
 #include <optional>
 
 #include "core/row_parser.h"
@@ -11,6 +13,7 @@
 #include "daemon/analysis_report.h"
 #include "daemon/analysis_result.h"
 #include "daemon/probe_file_reader.h"
+#include "daemon/series_catalog.h"
 
 namespace plateau {
 namespace {
@@ -26,6 +29,7 @@ struct AnalyzeOptions {
   std::vector<std::string> covariances;
   std::vector<std::string> third_moments;
   std::vector<std::string> tkes;
+  std::vector<SourceStatistics::ColumnScale> scales;
   EvaluationOptions evaluation;
   std::size_t capacity = BlockHistory::kDefaultCapacity;
   bool json = false;
@@ -74,7 +78,8 @@ std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
       o.json = true;
     } else if (a == "--time" || a == "--means" || a == "--variance" || a == "--rms" ||
                a == "--covariance" || a == "--third-moment" || a == "--tke" ||
-               a == "--confidence" || a == "--batches" || a == "--warmup" || a == "--blocks") {
+               a == "--confidence" || a == "--batches" || a == "--warmup" || a == "--blocks" ||
+               a == "--scale") {
       const auto v = value();
       if (!v) return std::nullopt;
       if (a == "--time") o.time_column = *v;
@@ -84,6 +89,17 @@ std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
       if (a == "--covariance") o.covariances.push_back(*v);
       if (a == "--third-moment") o.third_moments.push_back(*v);
       if (a == "--tke") o.tkes.push_back(*v);
+      if (a == "--scale") {
+        const std::size_t equals = v->rfind('=');
+        const auto factor =
+            equals == std::string::npos ? std::nullopt : ParseDouble(v->substr(equals + 1));
+        if (!factor || *factor == 0.0 || equals == 0) {
+          *error = "--scale takes COLUMN=FACTOR with a factor other than 0, such as tau.x=-1; "
+                   "got '" + *v + "'";
+          return std::nullopt;
+        }
+        o.scales.push_back({v->substr(0, equals), *factor});
+      }
       if (a == "--confidence") {
         const auto c = ParseDouble(*v);
         if (!c || *c <= 0.0 || *c >= 1.0) {
@@ -180,11 +196,17 @@ std::vector<StatisticRequest> BuildRequests(const AnalyzeOptions& o,
 }
 
 // Feeds one file's rows into the source; creates the source from the first file's columns.
+// The catalog has already left out segments with another header; the check here is the guard.
 class AnalyzeSink : public RowSink {
  public:
-  AnalyzeSink(const AnalyzeOptions& options, std::optional<SourceStatistics>& source,
-              FileSummary& summary, std::vector<std::string>& notes)
-      : options_(options), source_(source), summary_(summary), notes_(notes) {}
+  AnalyzeSink(const AnalyzeOptions& options, const std::vector<StatisticRequest>& requests,
+              std::optional<SourceStatistics>& source, FileSummary& summary,
+              std::vector<std::string>& notes)
+      : options_(options),
+        requests_(requests),
+        source_(source),
+        summary_(summary),
+        notes_(notes) {}
 
   const std::string& error() const { return error_; }
 
@@ -196,12 +218,14 @@ class AnalyzeSink : public RowSink {
       return;
     }
     std::string error;
-    source_ = SourceStatistics::Make(names, options_.time_column, BuildRequests(options_, names),
-                                     options_.capacity, &error);
+    source_ = SourceStatistics::Make(names, options_.time_column, requests_, options_.capacity,
+                                     &error);
     if (!source_) {
       error_ = summary_.path + ": " + error;
     } else if (!source_->problems().empty()) {
       error_ = summary_.path + ": " + source_->problems().front().message;
+    } else if (!source_->SetScales(options_.scales, &error)) {
+      error_ = summary_.path + ": " + error;
     }
   }
 
@@ -236,6 +260,7 @@ class AnalyzeSink : public RowSink {
   }
 
   const AnalyzeOptions& options_;
+  const std::vector<StatisticRequest>& requests_;
   std::optional<SourceStatistics>& source_;
   FileSummary& summary_;
   std::vector<std::string>& notes_;
@@ -243,36 +268,18 @@ class AnalyzeSink : public RowSink {
   std::uint64_t reported_skipped_ = 0;
 };
 
-// Time of the first data row of a file, for reading the files of a restarted run in time order;
-// infinity when the file has none (it then goes last).
-double FirstTime(const std::string& path, const std::string& time_column) {
-  struct FirstRow : RowSink {
-    std::vector<std::string> names;
-    double time = std::numeric_limits<double>::infinity();
-    const std::string* time_column = nullptr;
-    void OnColumns(const std::vector<std::string>& n) override { names = n; }
-    void OnRow(std::uint64_t, const double* values) override {
-      if (!std::isinf(time)) return;
-      const int index = time_column->empty() ? 0 : ResolveColumn(names, *time_column);
-      if (index >= 0) time = values[index];
-    }
-    void OnBadLine(std::uint64_t, std::string_view) override {}
-  } first;
-  first.time_column = &time_column;
-  RowParser parser;
-  ReadProbeFile(path, 0, parser, first, [&] { return std::isinf(first.time); });
-  return first.time;
-}
-
 }  // namespace
 
 std::string AnalyzeUsage() {
-  return R"(usage: plateau analyze FILE... [options]
+  return R"(usage: plateau analyze DIR_OR_FILE... [options]
 
 Estimates every requested time average of existing probe files, with its confidence interval,
-integrated autocorrelation time, effective sample size, warm-up cut and drift test. Several files
-are one restarted run: they are read in the order of their first time, and rows whose time is not
-after the last one read are skipped as restart overlap.
+integrated autocorrelation time, effective sample size, warm-up cut and drift test. The files
+(folders are searched through) are grouped into series, each reported on its own: a solver
+function's file in start-time folders (output/probes/0/U, output/probes/2000/U) or numbered
+restart folders (run1/, run2/) is one restarted run, read in the order of its first times, with
+rows whose time is not after the last one read skipped as restart overlap. Files that are not
+time series (logs, binary files, tables of text) are left out, each with its reason.
 
 By default every column except the time column gets its mean.
 
@@ -288,6 +295,8 @@ options:
   --batches K           number of non-overlapping batches (default 20)
   --warmup W            auto (MSER-5, default), none, or a time before which samples are dropped
   --blocks N            blocks kept per statistic (default 4096; memory per statistic)
+  --scale COL=F         multiply column COL by F before any statistic, e.g. a solver's sign
+                        convention tau.x=-1 or a density (repeatable)
   --json                one JSON object instead of the table
 
 exit status: 0 analysed, 2 bad usage or unusable input.
@@ -306,56 +315,95 @@ int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, s
     out << AnalyzeUsage();
     return 0;
   }
-  std::vector<std::pair<double, std::string>> ordered;
   for (const std::string& path : options.files) {
-    ordered.emplace_back(FirstTime(path, options.time_column), path);
-  }
-  std::stable_sort(ordered.begin(), ordered.end(),
-                   [](const auto& a, const auto& b) { return a.first < b.first; });
-
-  AnalysisResult result;
-  result.options = options.evaluation;
-  std::optional<SourceStatistics> source;
-  for (const auto& [first_time, path] : ordered) {
-    FileSummary summary;
-    summary.path = path;
-    RowParser parser;
-    AnalyzeSink sink(options, source, summary, result.notes);
-    const FileReadResult read =
-        ReadProbeFile(path, 0, parser, sink, [&] { return sink.error().empty(); });
-    if (!read.ok) {
-      err << "plateau analyze: " << read.error << "\n";
+    // A file named outright (no wildcard) must exist: say so as the system does.
+    std::error_code ec;
+    if (path.find_first_of("*?[") == std::string::npos && !std::filesystem::exists(path, ec)) {
+      err << "plateau analyze: cannot open " << path << ": No such file or directory\n";
       return 2;
     }
-    if (!sink.error().empty()) {
-      err << "plateau analyze: " << sink.error() << "\n";
-      return 2;
-    }
-    summary.bad_lines = parser.bad_lines();
-    summary.unterminated_last_line = parser.pending_bytes() > 0;
-    result.files.push_back(std::move(summary));
   }
-  if (!source) {
-    err << "plateau analyze: no data rows in " << options.files.front()
-        << (options.files.size() > 1 ? " or the other files" : "") << "\n";
+  const SeriesCatalog catalog = CatalogSeries(options.files, options.time_column);
+  for (const std::string& a : catalog.unmatched) {
+    err << "plateau analyze: " << a << " names no file\n";
+  }
+  for (const LeftOutFile& f : catalog.left_out) {
+    err << "plateau analyze: left out " << f.path << ": " << f.reason << "\n";
+  }
+  if (catalog.series.empty()) {
+    err << "plateau analyze: no time series to analyze in what was given\n";
     return 2;
   }
-  if (source->statistics().empty()) {
+  AnalysisResult result;
+  result.options = options.evaluation;
+  result.left_out = catalog.left_out;
+  result.notes = catalog.notes;
+  std::map<std::string, bool> request_used;  // by statistic name: did any series take it?
+  for (const Series& series : catalog.series) {
+    std::vector<StatisticRequest> requests = BuildRequests(options, series.first().columns);
+    if (catalog.series.size() > 1) {
+      // Several series: a statistic named by its columns goes to every series that has them.
+      std::vector<StatisticRequest> fitting;
+      for (const StatisticRequest& r : requests) {
+        const bool fits = std::all_of(r.columns.begin(), r.columns.end(), [&](const std::string& c) {
+          return ResolveColumn(series.first().columns, c) >= 0;
+        });
+        request_used[r.name] = request_used[r.name] || fits;
+        if (fits) fitting.push_back(r);
+      }
+      requests = std::move(fitting);
+    }
+    SourceAnalysis analysis;
+    analysis.name = series.name;
+    analysis.series = series.glob;
+    std::optional<SourceStatistics> source;
+    for (const SegmentSample& segment : series.segments) {
+      FileSummary summary;
+      summary.path = segment.path;
+      RowParser parser = ParserFor(segment.path);
+      AnalyzeSink sink(options, requests, source, summary, analysis.notes);
+      const FileReadResult read =
+          ReadProbeFile(segment.path, 0, parser, sink, [&] { return sink.error().empty(); });
+      if (!read.ok) {
+        err << "plateau analyze: " << read.error << "\n";
+        return 2;
+      }
+      if (!sink.error().empty()) {
+        err << "plateau analyze: " << sink.error() << "\n";
+        return 2;
+      }
+      summary.bad_lines = parser.bad_lines();
+      summary.unterminated_last_line = parser.pending_bytes() > 0;
+      analysis.files.push_back(std::move(summary));
+    }
+    if (!source) continue;  // the file lost its rows since it was catalogued
+    if (source->gate().current_overlap().samples > 0) {
+      const TimeOrderGate::Overlap& o = source->gate().current_overlap();
+      analysis.notes.push_back("restart overlap: the last " + std::to_string(o.samples) +
+                               " rows (times " + FormatValue(o.first_time) + " to " +
+                               FormatValue(o.last_time) + ") were not after earlier rows; skipped");
+    }
+    analysis.columns = source->columns();
+    analysis.time_column = source->columns()[source->time_index()];
+    for (const Statistic& statistic : source->statistics()) {
+      analysis.estimates.push_back(statistic.Evaluate(options.evaluation));
+    }
+    analysis.statistic_columns = source->statistic_columns();
+    result.sources.push_back(std::move(analysis));
+  }
+  for (const auto& [name, used] : request_used) {
+    if (!used) {
+      err << "plateau analyze: " << name << ": no series has all its columns (each series' "
+             "columns are listed by --json under sources)\n";
+      return 2;
+    }
+  }
+  const bool anything = std::any_of(result.sources.begin(), result.sources.end(),
+                                    [](const SourceAnalysis& a) { return !a.estimates.empty(); });
+  if (!anything) {
     err << "plateau analyze: nothing to estimate (--means none and no other statistic asked)\n";
     return 2;
   }
-  if (source->gate().current_overlap().samples > 0) {
-    const TimeOrderGate::Overlap& o = source->gate().current_overlap();
-    result.notes.push_back("restart overlap: the last " + std::to_string(o.samples) +
-                           " rows (times " + FormatValue(o.first_time) + " to " +
-                           FormatValue(o.last_time) + ") were not after earlier rows; skipped");
-  }
-  result.columns = source->columns();
-  result.time_column = source->columns()[source->time_index()];
-  for (const Statistic& statistic : source->statistics()) {
-    result.estimates.push_back(statistic.Evaluate(options.evaluation));
-  }
-  result.statistic_columns = source->statistic_columns();
   out << (options.json ? FormatAnalysisJson(result) : FormatAnalysisTable(result));
   return 0;
 }

@@ -11,32 +11,14 @@
 #include <sstream>
 
 #include "config/config_loader.h"
-#include "core/row_parser.h"
-#include "core/source_statistics.h"
-#include "daemon/probe_file_reader.h"
+#include "daemon/series_catalog.h"
 
 namespace plateau {
 namespace {
 
 namespace fs = std::filesystem;
 
-struct FoundFile {
-  std::string path;
-  std::string pattern;  // the argument that matched it
-};
-
-// The files of one column layout, which become one source; with the mean and the standard
-// deviation of each column over the first rows of its first file.
-struct Layout {
-  std::vector<std::string> columns;
-  std::vector<FoundFile> files;
-  std::vector<double> mean;
-  std::vector<double> deviation;
-};
-
-// Rows read per file to see what the columns look like.
-constexpr std::uint64_t kSampleRows = 5000;
-
+// Regular files a glob matches now.
 std::vector<std::string> Expand(const std::string& pattern) {
   std::vector<std::string> paths;
   glob_t matches{};
@@ -49,37 +31,6 @@ std::vector<std::string> Expand(const std::string& pattern) {
   return paths;
 }
 
-// Column names of a file (empty when it has no data row yet) and, over its first rows, each
-// column's mean and standard deviation (Welford's update).
-Layout LayoutOf(const std::string& path) {
-  struct Sample : RowSink {
-    Layout layout;
-    std::vector<double> sum_sq;
-    std::uint64_t rows = 0;
-    void OnColumns(const std::vector<std::string>& n) override {
-      layout.columns = n;
-      layout.mean.assign(n.size(), 0.0);
-      sum_sq.assign(n.size(), 0.0);
-    }
-    void OnRow(std::uint64_t, const double* values) override {
-      if (rows >= kSampleRows) return;
-      ++rows;
-      for (std::size_t c = 0; c < layout.columns.size(); ++c) {
-        const double delta = values[c] - layout.mean[c];
-        layout.mean[c] += delta / static_cast<double>(rows);
-        sum_sq[c] += delta * (values[c] - layout.mean[c]);
-      }
-    }
-    void OnBadLine(std::uint64_t, std::string_view) override {}
-  } sample;
-  RowParser parser;
-  ReadProbeFile(path, 0, parser, sample, [&] { return sample.rows < kSampleRows; });
-  for (double s : sample.sum_sq) {
-    sample.layout.deviation.push_back(sample.rows > 1 ? std::sqrt(s / (sample.rows - 1)) : 0.0);
-  }
-  return sample.layout;
-}
-
 std::string Quoted(const std::string& text) {
   std::string out = "\"";
   for (char c : text) {
@@ -87,22 +38,6 @@ std::string Quoted(const std::string& text) {
     out += c;
   }
   return out + "\"";
-}
-
-// The glob for one layout: the argument's folder with the shared file name, when the argument
-// ended in a wildcard and every file of the layout has the same name.
-std::string SourceGlob(const Layout& layout) {
-  const std::string& pattern = layout.files.front().pattern;
-  const std::string name = fs::path(layout.files.front().path).filename().string();
-  bool same_name = true;
-  for (const FoundFile& f : layout.files) {
-    same_name = same_name && fs::path(f.path).filename().string() == name;
-  }
-  const fs::path p(pattern);
-  if (same_name && p.filename().string().find_first_of("*?[") != std::string::npos) {
-    return (p.parent_path() / name).string();
-  }
-  return pattern;
 }
 
 std::optional<double> Fraction(const std::string& text) {
@@ -114,54 +49,160 @@ std::optional<double> Fraction(const std::string& text) {
   return value;
 }
 
-void WriteConfig(const std::vector<Layout>& layouts, const std::vector<std::string>& patterns,
+// The columns of a source as one comment: all of them when few, else the first ones and a count.
+std::string ColumnList(const std::vector<std::string>& columns) {
+  constexpr std::size_t kShown = 8;
+  std::string list;
+  for (std::size_t c = 0; c < columns.size() && c < kShown; ++c) list += " " + columns[c];
+  if (columns.size() > kShown) list += " ... (" + std::to_string(columns.size()) + " in all)";
+  return list;
+}
+
+// A line of probes for a profile: consecutive probe numbers, three components each, locations
+// that differ along one coordinate only and increase along it.
+struct ProbeLine {
+  int coordinate = -1;  // 0, 1, 2 for x, y, z
+  int first_id = 0;
+  std::vector<double> positions;
+};
+
+std::optional<ProbeLine> ProbeLineOf(const SegmentSample& s) {
+  const std::vector<ProbeLocation>& probes = s.probes;
+  if (probes.size() < 3 || s.columns.size() != 1 + 3 * probes.size()) return std::nullopt;
+  for (std::size_t p = 0; p < probes.size(); ++p) {
+    if (probes[p].id != probes[0].id + static_cast<int>(p) || std::isnan(probes[p].position[0])) {
+      return std::nullopt;
+    }
+  }
+  for (int k = 0; k < 3; ++k) {
+    bool others_fixed = true;
+    bool increasing = true;
+    for (std::size_t p = 1; p < probes.size(); ++p) {
+      increasing = increasing && probes[p].position[k] > probes[p - 1].position[k];
+      for (int j = 0; j < 3; ++j) {
+        if (j != k) others_fixed = others_fixed && probes[p].position[j] == probes[0].position[j];
+      }
+    }
+    if (others_fixed && increasing) {
+      ProbeLine line{k, probes[0].id, {}};
+      for (const ProbeLocation& l : probes) line.positions.push_back(l.position[k]);
+      return line;
+    }
+  }
+  return std::nullopt;
+}
+
+// Returns true when the entry was written as it stands, false when commented out.
+bool WriteProfile(const Series& series, const ProbeLine& line, std::ostream& raw) {
+  const char axis = "xyz"[line.coordinate];
+  const std::string field = series.first().segment.file_stem;
+  // Written as it stands only when the coordinates are wall distances from a wall at 0 (they grow
+  // from 0); otherwise commented out, since only the user knows where the wall is.
+  bool from_zero = line.positions.front() >= 0.0;
+  for (std::size_t p = 1; p < line.positions.size(); ++p) {
+    from_zero = from_zero && std::fabs(line.positions[p]) > std::fabs(line.positions[p - 1]);
+  }
+  std::ostringstream out;
+  out << "  - name: " << Quoted(series.name) << "    # a line of " << line.positions.size()
+      << " probes along " << axis << "\n"
+      << "    source: " << Quoted(series.name) << "\n"
+      << "    # The probes' " << axis << " coordinates from the file's header. They are wall "
+      << "distances only\n    # if the wall is at " << axis << " = 0: otherwise give the wall's "
+      << axis << " coordinate as wall_at.\n"
+      << "    positions: [";
+  for (std::size_t p = 0; p < line.positions.size(); ++p) {
+    out << (p == 0 ? "" : ", ") << line.positions[p];
+  }
+  out << "]\n    wall_at: 0\n"
+      << "    columns: {u: " << Quoted(field + "[{i}].x") << ", v: " << Quoted(field + "[{i}].y")
+      << ", w: " << Quoted(field + "[{i}].z") << "}\n"
+      << "    first_index: " << line.first_id << "\n"
+      << "    quantities: [U, uu, vv, ww, uv, k]   # monitored: give a target to wait for them\n";
+  if (from_zero) {
+    raw << out.str();
+    return true;
+  }
+  raw << "  # The probes' distances from " << axis << " = 0 do not grow along the line: set wall_at "
+      << "to the wall's\n  # " << axis << " coordinate and remove the '#' of the lines below.\n";
+  std::istringstream lines(out.str());
+  for (std::string l; std::getline(lines, l);) raw << "  #" << l << "\n";
+  return false;
+}
+
+// A column that holds a wall shear stress, by the names solvers give it; empty when none.
+std::string WallShearColumn(const Series& series) {
+  for (const std::string& c : series.first().columns) {
+    if (c.find("wallShearStress") != std::string::npos && c.size() > 2 &&
+        c.compare(c.size() - 2, 2, ".x") == 0) {
+      return c;
+    }
+  }
+  return "";
+}
+
+void WriteWallUnitsProposal(const std::vector<Series>& series, std::ostream& out) {
+  for (const Series& s : series) {
+    const std::string column = WallShearColumn(s);
+    if (column.empty()) continue;
+    out << "\n# Wall units (y+, U+): series '" << s.name << "' holds a wall shear stress. To use "
+        << "it, remove the\n# '#' below and fill in what is marked. A solver's wall shear stress is "
+        << "often kinematic\n# (m^2/s^2: then density 1) and its streamwise component negative: "
+        << "add to the source\n#   scale: {" << Quoted(column) << ": -1}\n"
+        << "# wall_units:\n"
+        << "#   wall_shear: " << Quoted(s.name + "/" + column)
+        << "   # a mean statistic defined below\n"
+        << "#   viscosity: FILL_IN        # kinematic viscosity, m^2/s\n"
+        << "#   density: FILL_IN          # kg/m^3; 1 when the wall shear stress is kinematic\n"
+        << "#   half_height: FILL_IN      # channel half-height, for Re_tau and the momentum "
+        << "balance\n";
+    return;
+  }
+}
+
+void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& patterns,
                  double relative, double confidence, std::ostream& out) {
   std::string from;
   for (const std::string& p : patterns) from += (from.empty() ? "" : " ") + p;
   out << "# plateau run configuration, written by plateau init from: " << from << "\n"
       << "# Paths are relative to this file's folder. Every key is explained in plateau's\n"
-      << "# README; check a change with: plateau validate THIS_FILE\n"
-      << "run: " << Quoted(fs::current_path().filename().string()) << "\n"
+      << "# README; check a change with: plateau validate THIS_FILE\n";
+  for (const LeftOutFile& f : catalog.left_out) out << "# left out: " << f.path << ": " << f.reason << "\n";
+  for (const std::string& n : catalog.notes) out << "# note: " << n << "\n";
+  out << "run: " << Quoted(fs::current_path().filename().string()) << "\n"
       << "store: plateau.db          # the SQLite store: snapshots, events, checkpoint\n"
       << "evaluate_every: 60         # seconds between evaluations\n"
       << "poll_every: 10             # seconds between looks at the files (inotify is sooner)\n"
       << "warmup: auto               # MSER start-up cut; or none, or a simulated time\n"
       << "confirmations: 3           # evaluations in a row a target must hold to count as met\n"
-      << "minimum_effective_samples: 100\n\nsources:\n";
+      << "minimum_effective_samples: 100\n\n"
+      << "# One source per series: a solver function's file, its restart segments in time order.\n"
+      << "sources:\n";
   std::map<std::string, int> column_uses;
-  std::vector<std::string> source_names;
-  std::set<std::string> taken;
-  for (const Layout& layout : layouts) {
-    std::string name = fs::path(layout.files.front().path).stem().string();
-    for (int k = 2; taken.count(name) > 0; ++k) {
-      name = fs::path(layout.files.front().path).stem().string() + "_" + std::to_string(k);
-    }
-    taken.insert(name);
-    source_names.push_back(name);
-    for (std::size_t c = 1; c < layout.columns.size(); ++c) ++column_uses[layout.columns[c]];
-    std::string columns;
-    for (const std::string& c : layout.columns) columns += " " + c;
-    out << "  - name: " << Quoted(name) << "    # " << layout.files.size()
-        << (layout.files.size() == 1 ? " file" : " files") << ", columns:" << columns << "\n"
-        << "    files: " << Quoted(SourceGlob(layout)) << "\n"
-        << "    time_column: " << Quoted(layout.columns.front()) << "\n";
+  for (const Series& s : catalog.series) {
+    const SegmentSample& first = s.first();
+    for (std::size_t c = 1; c < first.columns.size(); ++c) ++column_uses[first.columns[c]];
+    out << "  - name: " << Quoted(s.name) << "    # " << s.segments.size()
+        << (s.segments.size() == 1 ? " segment" : " segments") << ", columns:"
+        << ColumnList(first.columns) << "\n"
+        << "    files: " << Quoted(s.glob) << "\n"
+        << "    time_column: " << Quoted(first.columns.front()) << "\n";
   }
   out << "\n# A mean per data column, each to a relative half-width of " << relative * 100
       << " % at " << confidence * 100 << " % confidence.\n# Other kinds: variance, rms, "
       << "covariance (2 columns), third_moment (3), tke (3).\nstatistics:\n";
-  for (std::size_t l = 0; l < layouts.size(); ++l) {
-    for (std::size_t c = 1; c < layouts[l].columns.size(); ++c) {
-      const std::string& column = layouts[l].columns[c];
-      const std::string name =
-          column_uses[column] > 1 ? source_names[l] + "/" + column : column;
+  for (const Series& s : catalog.series) {
+    const SegmentSample& first = s.first();
+    for (std::size_t c = 1; c < first.columns.size(); ++c) {
+      const std::string& column = first.columns[c];
+      const std::string name = column_uses[column] > 1 ? s.name + "/" + column : column;
       out << "  - name: " << Quoted(name) << "\n"
-          << "    source: " << Quoted(source_names[l]) << "\n"
+          << "    source: " << Quoted(s.name) << "\n"
           << "    kind: mean\n"
           << "    columns: [" << Quoted(column) << "]\n";
       // A mean smaller than the fluctuations (a cross-stream velocity, a lift coefficient) has no
       // useful relative half-width: give it an absolute one, relative to its standard deviation.
-      const double mean = layouts[l].mean[c];
-      const double deviation = layouts[l].deviation[c];
+      const double mean = first.mean[c];
+      const double deviation = first.deviation[c];
       if (deviation > 0.0 && std::fabs(mean) < deviation) {
         char absolute[32];
         std::snprintf(absolute, sizeof absolute, "%.3g", relative * deviation);
@@ -174,16 +215,29 @@ void WriteConfig(const std::vector<Layout>& layouts, const std::vector<std::stri
       }
     }
   }
+  std::ostringstream profiles;
+  bool any_active = false;
+  for (const Series& s : catalog.series) {
+    if (const std::optional<ProbeLine> line = ProbeLineOf(s.first())) {
+      any_active = WriteProfile(s, *line, profiles) || any_active;
+    }
+  }
+  if (!profiles.str().empty()) out << (any_active ? "\nprofiles:\n" : "\n# profiles:\n") << profiles.str();
+  WriteWallUnitsProposal(catalog.series, out);
 }
 
 }  // namespace
 
 std::string InitUsage() {
-  return R"(usage: plateau init GLOB... [--relative R] [--confidence C] > run.yaml
+  return R"(usage: plateau init DIR_OR_GLOB... [--relative R] [--confidence C] > run.yaml
 
-Reads the headers of the probe files the globs match (quote them: 'probes/*/*.dat') and writes a
-commented starter config to stdout: one source per file layout, a mean statistic per data column,
-each with a relative target R (default 0.01) at confidence C (default 0.95).
+Reads the headers of the probe files under the folders or matched by the globs (quote them:
+'output/*/*/*') and writes a commented starter config to stdout: one source per series (a solver
+function's file, its restart segments in start-time folders such as output/probes/0/U and
+output/probes/2000/U taken as one), a mean statistic per data column, each with a relative target
+R (default 0.01) at confidence C (default 0.95); a profile for a line of probes; a wall-units
+proposal where a wall shear stress is found. Files that are not time series (logs, binary files,
+tables of text) are left out, each with its reason on stderr.
 )";
 }
 
@@ -223,32 +277,18 @@ int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std:
     err << "plateau init: no probe files given (see plateau init --help)\n";
     return 2;
   }
-  std::vector<Layout> layouts;
-  std::set<std::string> seen;
-  for (const std::string& pattern : patterns) {
-    for (const std::string& path : Expand(pattern)) {
-      if (!seen.insert(path).second) continue;
-      Layout found = LayoutOf(path);
-      if (found.columns.size() < 2) {
-        err << "plateau init: " << path << " has no data rows yet; left out\n";
-        continue;
-      }
-      auto it = std::find_if(layouts.begin(), layouts.end(),
-                             [&](const Layout& l) { return l.columns == found.columns; });
-      if (it == layouts.end()) {
-        layouts.push_back(std::move(found));
-        it = layouts.end() - 1;
-      }
-      it->files.push_back({path, pattern});
-    }
+  const SeriesCatalog catalog = CatalogSeries(patterns);
+  for (const LeftOutFile& f : catalog.left_out) {
+    err << "plateau init: left out " << f.path << ": " << f.reason << "\n";
   }
-  if (layouts.empty()) {
+  for (const std::string& n : catalog.notes) err << "plateau init: note: " << n << "\n";
+  if (catalog.series.empty()) {
     err << "plateau init: no probe file with data matched";
     for (const std::string& p : patterns) err << " " << p;
     err << "\n";
     return 2;
   }
-  WriteConfig(layouts, patterns, relative, confidence, out);
+  WriteConfig(catalog, patterns, relative, confidence, out);
   return 0;
 }
 

@@ -12,6 +12,7 @@
 
 #include "daemon/analysis_report.h"
 #include "daemon/probe_file_reader.h"
+#include "daemon/series_catalog.h"
 
 namespace plateau {
 namespace {
@@ -99,8 +100,13 @@ class SourceTail::FileSink : public RowSink {
     if (!tail_.source_) {
       tail_.StartSource(names, file_.path);
     } else if (names != tail_.source_->columns()) {
-      tail_.log_->error("{}: its columns ({}) differ from the source's ({}); the file is ignored",
-                        file_.path, Joined(names), Joined(tail_.source_->columns()));
+      // A restart segment with another header (a probe added or moved): never merged column by
+      // column with the segments before it.
+      tail_.log_->error(
+          "source '{}': the header of {} differs from that of {} ({} columns: {}; against {}: {}); "
+          "a probe added or moved at a restart? The file is ignored: give it a source of its own",
+          tail_.config_.name, file_.path, tail_.layout_file_, names.size(), Joined(names),
+          tail_.source_->columns().size(), Joined(tail_.source_->columns()));
       file_.layout_mismatch = true;
     }
   }
@@ -145,6 +151,12 @@ void SourceTail::StartSource(const std::vector<std::string>& columns,
     log_->error("source '{}' ({}): {}; nothing of it can be estimated until the config is fixed",
                 config_.name, from_file, error);
     return;
+  }
+  layout_file_ = from_file;
+  if (!source_->SetScales(config_.scales, &error)) {
+    log_->error("source '{}' ({}): {}; the columns are {}; no factor is applied until the config "
+                "is fixed",
+                config_.name, from_file, error, Joined(columns));
   }
   for (const SourceStatistics::Problem& p : source_->problems()) {
     log_->error("statistic '{}' of source '{}': {}", requests_[p.request].name, config_.name,
@@ -204,6 +216,7 @@ void SourceTail::DiscoverFiles() {
     if (known) continue;
     TrackedFile file;
     file.path = path;
+    file.parser = ParserFor(path);
     struct stat info {};
     if (::stat(path.c_str(), &info) == 0) file.inode = static_cast<std::int64_t>(info.st_ino);
     log_->info("source '{}': reading new file {}", config_.name, path);
@@ -237,7 +250,7 @@ bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
                file.path, replaced ? "replaced" : truncated ? "truncated" : "rewritten", *size,
                read_to);
     file.inode = inode;
-    file.parser = RowParser();
+    file.parser = ParserFor(file.path);
     file.vanished = false;
     file.layout_mismatch = false;
     file.bad_lines_logged = 0;
@@ -287,6 +300,15 @@ bool SourceTail::Poll(double wall_time) {
   // Oldest first time first: the remainder of a run's file before its restart's new file.
   std::vector<TrackedFile*> order;
   for (TrackedFile& f : files_) order.push_back(&f);
+  // A file not read yet is ordered by its first data time, looked up without reading it: the
+  // glob lists start-time folders as text (1000 before 250), and a later segment read first would
+  // make every row of the earlier one look like restart overlap.
+  for (TrackedFile& f : files_) {
+    if (std::isnan(f.first_time) && !f.vanished) {
+      const double t = FirstDataTime(f.path, config_.time_column);
+      if (!std::isinf(t)) f.first_time = t;
+    }
+  }
   std::stable_sort(order.begin(), order.end(), [](const TrackedFile* a, const TrackedFile* b) {
     const double ta = std::isnan(a->first_time) ? INFINITY : a->first_time;
     const double tb = std::isnan(b->first_time) ? INFINITY : b->first_time;

@@ -89,6 +89,7 @@ class SourceTail {
   std::vector<TrackedFile> files_;
   double last_sample_wall_time_ = std::numeric_limits<double>::quiet_NaN();
   std::uint64_t overlap_reported_ = 0;
+  std::string layout_file_;  // the file whose header set the source's columns
 };
 
 }  // namespace plateau

@@ -116,19 +116,26 @@ TEST_F(AnalyzeCommand, MissingFileIsAClearErrorNotACrash) {
 }
 
 TEST_F(AnalyzeCommand, UnreadableFileIsAClearError) {
-  // A folder opens but cannot be read: a read error that also happens as root, where file
-  // permissions would not stop anything.
-  fs::create_directories(dir_ / "folder.dat");
-  EXPECT_EQ(Run({(dir_ / "folder.dat").string()}), 2);
-  EXPECT_NE(err_.str().find("cannot read"), std::string::npos);
-  EXPECT_NE(err_.str().find("Is a directory"), std::string::npos);
+  // A file that opens but cannot be read, also as root: the process's own memory at offset 0.
+  EXPECT_EQ(Run({"/proc/self/mem"}), 2);
+  EXPECT_NE(err_.str().find("left out /proc/self/mem: cannot read"), std::string::npos)
+      << err_.str();
+  EXPECT_NE(err_.str().find("Input/output error"), std::string::npos);
+}
+
+TEST_F(AnalyzeCommand, EmptyFolderSaysItNamesNoFile) {
+  fs::create_directories(dir_ / "nothing_yet");
+  EXPECT_EQ(Run({(dir_ / "nothing_yet").string()}), 2);
+  EXPECT_NE(err_.str().find("nothing_yet names no file"), std::string::npos) << err_.str();
 }
 
 TEST_F(AnalyzeCommand, EmptyFileSaysThereAreNoDataRows) {
   const fs::path path = dir_ / "empty.dat";
   std::ofstream(path) << "# time u\n";
   EXPECT_EQ(Run({path.string()}), 2);
-  EXPECT_EQ(err_.str(), "plateau analyze: no data rows in " + path.string() + "\n");
+  EXPECT_EQ(err_.str(), "plateau analyze: left out " + path.string() +
+                            ": no data rows yet\nplateau analyze: no time series to analyze in "
+                            "what was given\n");
 }
 
 TEST_F(AnalyzeCommand, TooFewSamplesIsAStateNotANumber) {

@@ -1,0 +1,230 @@
+// A newcomer's first contact on a solver's output tree: init on the whole tree, validate, watch,
+// status; and analyze on the tree in one call. The tree holds three series with the same column
+// count (the case that once merged them into one source), a probe line, restart segments with
+// overlapping times, a log and a binary file (tests/daemon/solver_tree.h).
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <sstream>
+
+#include "daemon/analyze_command.h"
+#include "daemon/json_value.h"
+#include "tests/daemon/run_folder.h"
+#include "tests/daemon/solver_tree.h"
+
+namespace plateau {
+namespace {
+
+namespace fs = std::filesystem;
+using testing::ReadAll;
+using testing::SolverTree;
+using testing::WaitFor;
+using testing::WatchDaemon;
+
+class SolverTreeRun : public testing::RunFolder {
+ protected:
+  void SetUp() override {
+    RunFolder::SetUp();
+    tree_.WriteRestartedRun(dir_ / "output");
+  }
+
+  // `plateau analyze ARGS --json` in process, parsed.
+  JsonValue Analyze(const std::vector<std::string>& args) {
+    std::vector<std::string> all = args;
+    all.push_back("--json");
+    std::ostringstream out, err;
+    EXPECT_EQ(RunAnalyzeCommand(all, out, err), 0) << err.str();
+    std::string error;
+    auto json = JsonValue::Parse(out.str(), &error);
+    EXPECT_TRUE(json.has_value()) << error;
+    return json ? *json : JsonValue();
+  }
+
+  // The daemon's log beside the config: init names the run after the folder it ran in.
+  std::string LogPath() const {
+    return Path(fs::current_path().filename().string() + ".plateau.log");
+  }
+
+  SolverTree tree_;
+};
+
+// Statistic name -> its JSON object, for every statistic of an analyze or status document.
+std::map<std::string, const JsonValue*> ByName(const JsonValue& document) {
+  std::map<std::string, const JsonValue*> named;
+  if (const JsonValue* list = document.Find("statistics")) {
+    for (const JsonValue& s : list->array()) named[s.Find("name")->string()] = &s;
+  }
+  return named;
+}
+
+TEST_F(SolverTreeRun, InitWritesOneSourcePerSeriesWithExactGlobsAndLeavesOutWhatIsNoSeries) {
+  const auto init = Plateau({"init", Path("output")});
+  ASSERT_EQ(init.exit_code, 0) << init.err;
+  const std::string& yaml = init.out;
+  for (const char* glob : {"output/wallShearLower/*/surfaceFieldValue.dat",
+                           "output/wallShearUpper/*/surfaceFieldValue.dat",
+                           "output/bulkVelocity/*/volFieldValue.dat", "output/probes/*/U"}) {
+    EXPECT_NE(yaml.find("files: \"" + Path(glob) + "\""), std::string::npos) << glob << yaml;
+  }
+  for (const char* source : {"wallShearLower", "wallShearUpper", "bulkVelocity", "probes"}) {
+    EXPECT_NE(yaml.find(std::string("- name: \"") + source + "\""), std::string::npos) << source;
+  }
+  // Named columns: per wall, per probe and component.
+  EXPECT_NE(yaml.find("\"wallShearLower/areaAverage(wallShearStress).x\""), std::string::npos);
+  EXPECT_NE(yaml.find("\"U[4].z\""), std::string::npos);
+  EXPECT_EQ(yaml.find("col2"), std::string::npos);
+  // The log and the binary file: one line each, with the reason.
+  EXPECT_NE(init.err.find("left out " + Path("output/log.solver") + ": "), std::string::npos)
+      << init.err;
+  EXPECT_NE(init.err.find("left out " + Path("output/restart.bin") + ": binary data"),
+            std::string::npos);
+  // The probe line becomes a profile at the header's coordinates; wall units are proposed.
+  EXPECT_NE(yaml.find("positions: [0.0048, 0.012, 0.031, 0.12, 0.5]"), std::string::npos) << yaml;
+  EXPECT_NE(yaml.find("columns: {u: \"U[{i}].x\", v: \"U[{i}].y\", w: \"U[{i}].z\"}"),
+            std::string::npos);
+  EXPECT_NE(yaml.find("# wall_units:"), std::string::npos);
+
+  std::ofstream(Path("run.yaml")) << yaml;
+  const auto validate = Plateau({"validate", Path("run.yaml")});
+  EXPECT_EQ(validate.exit_code, 0) << validate.err << yaml;
+  EXPECT_NE(validate.out.find("4 sources"), std::string::npos) << validate.out;
+  EXPECT_NE(validate.out.find("source 'wallShearLower': 2 files match"), std::string::npos);
+}
+
+TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncutSeries) {
+  const auto init = Plateau({"init", Path("output")});
+  ASSERT_EQ(init.exit_code, 0) << init.err;
+  std::ofstream(Path("run.yaml")) << init.out;
+  tree_.WriteUncut(dir_ / "uncut");
+
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  // Every statistic's row (profile summaries carry no count of their own) has every sample.
+  const auto all_read = [&] {
+    const auto v = Latest();
+    if (!v) return false;
+    std::size_t counted = 0;
+    for (const SnapshotRow& s : v->statistics) {
+      if (s.json.find("\"samples_total\":") == std::string::npos) continue;
+      ++counted;
+      if (s.json.find("\"samples_total\":" + std::to_string(SolverTree::kRows) + ",") ==
+          std::string::npos) {
+        return false;
+      }
+    }
+    return counted == 3 * 3 + 15 + 5 * 6;
+  };
+  ASSERT_TRUE(WaitFor(all_read, 120)) << ReadAll(Path("watch.log"));
+  const auto status = Plateau({"status", Path("run.yaml"), "--json"});
+  ASSERT_EQ(status.exit_code, 0) << status.err;
+  std::string error;
+  const auto document = JsonValue::Parse(status.out, &error);
+  ASSERT_TRUE(document.has_value()) << error;
+  const auto watched = ByName(*document);
+  daemon.Signal(SIGTERM);
+  EXPECT_EQ(daemon.Wait(30), 0);
+
+  // init names a column used by several series "<source>/<column>", else by the column.
+  std::size_t compared = 0;
+  for (const SolverTree::SeriesText& series : tree_.series()) {
+    const JsonValue uncut = Analyze({Path("uncut/" + series.folder + "/" + series.file)});
+    for (const auto& [column, analyzed] : ByName(uncut)) {
+      auto it = watched.find(series.folder + "/" + column);
+      if (it == watched.end()) it = watched.find(column);
+      ASSERT_NE(it, watched.end()) << series.folder << " " << column;
+      EXPECT_EQ(it->second->Find("source")->string(), series.folder);
+      EXPECT_EQ(it->second->Find("samples_total")->number(), SolverTree::kRows);
+      for (const char* key : {"mean", "half_width", "integrated_time"}) {
+        const double expected = analyzed->Find(key)->number();
+        EXPECT_NEAR(it->second->Find(key)->number(), expected, 1e-12 * std::fabs(expected))
+            << column << " " << key;
+      }
+      ++compared;
+    }
+  }
+  EXPECT_EQ(compared, 3u * 3u + 15u);
+  // No segment was taken for another series' or refused for its header.
+  const std::string log = ReadAll(LogPath());
+  EXPECT_EQ(log.find("differs from"), std::string::npos) << log;
+}
+
+TEST_F(SolverTreeRun, AnalyzeReadsTheWholeTreeInOneCallOneSectionPerSeries) {
+  const JsonValue tree = Analyze({Path("output")});
+  const JsonValue* sources = tree.Find("sources");
+  ASSERT_NE(sources, nullptr);
+  ASSERT_EQ(sources->array().size(), 4u);
+  std::map<std::string, int> per_source;
+  for (const JsonValue& s : tree.Find("statistics")->array()) {
+    ++per_source[s.Find("source")->string()];
+    EXPECT_EQ(s.Find("samples_total")->number(), SolverTree::kRows) << s.Find("name")->string();
+  }
+  EXPECT_EQ(per_source["wallShearLower"], 3);
+  EXPECT_EQ(per_source["wallShearUpper"], 3);
+  EXPECT_EQ(per_source["bulkVelocity"], 3);
+  EXPECT_EQ(per_source["probes"], 15);
+  ASSERT_EQ(tree.Find("left_out")->array().size(), 2u);
+  // Each series' restart overlap skipped, never another series' rows.
+  std::size_t overlap = 0;
+  for (const JsonValue& f : tree.Find("files")->array()) {
+    overlap += static_cast<std::size_t>(f.Find("restart_overlap")->number());
+  }
+  EXPECT_EQ(overlap, 4 * SolverTree::kOverlap);
+
+  std::ostringstream table, err;
+  ASSERT_EQ(RunAnalyzeCommand({Path("output")}, table, err), 0);
+  EXPECT_NE(table.str().find("== source wallShearUpper: " +
+                             Path("output/wallShearUpper/*/surfaceFieldValue.dat") + " =="),
+            std::string::npos)
+      << table.str();
+  EXPECT_NE(table.str().find("left out " + Path("output/restart.bin")), std::string::npos);
+}
+
+TEST_F(SolverTreeRun, RestartSegmentWithAChangedHeaderIsNamedWithTheFirstAndNotMerged) {
+  // The job restarted at 60 s with a sixth probe: another header in the same series.
+  std::string header;
+  for (int p = 0; p < 6; ++p) {
+    header += "# Probe " + std::to_string(p) + " (2.05 " + std::to_string(0.01 * (p + 1)) +
+              " 1.0333)\n";
+  }
+  header += "#  Probe  0  1  2  3  4  5\n#  Time\n";
+  std::string rows;
+  for (int i = 1; i <= 200; ++i) {
+    rows += std::to_string(60 + 0.01 * i);
+    for (int p = 0; p < 6; ++p) rows += " (0.5 0.01 0.0)";
+    rows += "\n";
+  }
+  Append("output/probes/60/U", header + rows);
+  const JsonValue tree = Analyze({Path("output")});
+  bool named = false;
+  for (const JsonValue& f : tree.Find("left_out")->array()) {
+    const std::string& reason = f.Find("reason")->string();
+    if (f.Find("path")->string() == Path("output/probes/60/U")) {
+      named = reason.find("differs from that of " + Path("output/probes/0/U")) !=
+              std::string::npos;
+    }
+  }
+  EXPECT_TRUE(named) << "the changed segment is not left out naming the first one";
+  for (const JsonValue& s : tree.Find("statistics")->array()) {
+    EXPECT_EQ(s.Find("samples_total")->number(), SolverTree::kRows);  // nothing of it merged
+  }
+
+  // The daemon says the same in its log and ignores the file.
+  const auto init = Plateau({"init", Path("output")});
+  ASSERT_EQ(init.exit_code, 0) << init.err;
+  EXPECT_NE(init.err.find("left out " + Path("output/probes/60/U")), std::string::npos);
+  std::ofstream(Path("run.yaml")) << init.out;
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  const std::string log_path = LogPath();
+  ASSERT_TRUE(WaitFor([&] { return ReadAll(log_path).find("differs from that of") != std::string::npos; }, 60))
+      << ReadAll(log_path) << ReadAll(Path("watch.log"));
+  const std::string log = ReadAll(log_path);
+  EXPECT_NE(log.find(Path("output/probes/60/U")), std::string::npos) << log;
+  EXPECT_NE(log.find(Path("output/probes/0/U")), std::string::npos) << log;
+  daemon.Signal(SIGTERM);
+  EXPECT_EQ(daemon.Wait(30), 0);
+}
+
+}  // namespace
+}  // namespace plateau
