@@ -103,6 +103,8 @@ class Loader {
   void LoadSettings(const YAML::Node& root, RunConfig& c);
   void LoadWarmup(const YAML::Node& node, EvaluationOptions& options);
   std::optional<SourceConfig> LoadSource(const YAML::Node& node);
+  // Checks every reference series and adds the joint difference statistics they can have.
+  void ResolveReferenceSeries(const YAML::Node& statistics, RunConfig& c);
   std::optional<StatisticConfig> LoadStatistic(const YAML::Node& node, const RunConfig& c);
   std::optional<Target> LoadTarget(const YAML::Node& node, double default_confidence);
   void LoadAlerts(const YAML::Node& node, AlertsConfig& alerts);
@@ -263,6 +265,65 @@ std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
   return ok ? std::optional<SourceConfig>(s) : std::nullopt;
 }
 
+namespace {
+
+// The columns and weights of a statistic that is a linear function of column means; false for the
+// other kinds.
+bool AsWeightedMeans(const StatisticConfig& s, std::vector<std::string>* columns,
+                     std::vector<double>* weights, double scale) {
+  if (s.request.kind == StatisticKind::kMean) {
+    columns->push_back(s.request.columns[0]);
+    weights->push_back(scale);
+    return true;
+  }
+  if (s.request.kind == StatisticKind::kAverage) {
+    for (const std::string& column : s.request.columns) {
+      columns->push_back(column);
+      weights->push_back(0.5 * scale);
+    }
+    return true;
+  }
+  return false;
+}
+
+}  // namespace
+
+void Loader::ResolveReferenceSeries(const YAML::Node& statistics, RunConfig& c) {
+  // Positions in `statistics` match c.statistics only when every statistic loaded.
+  if (!errors_->empty() || !statistics || !statistics.IsSequence()) return;
+  std::vector<StatisticConfig> added;
+  for (std::size_t i = 0; i < c.statistics.size(); ++i) {
+    StatisticConfig& s = c.statistics[i];
+    if (s.reference_statistic.empty()) continue;
+    const YAML::Node where = statistics[i]["reference"];
+    const auto other = std::find_if(c.statistics.begin(), c.statistics.end(), [&](const auto& o) {
+      return o.request.name == s.reference_statistic;
+    });
+    if (other == c.statistics.end() || &*other == &s) {
+      Error(where, "reference statistic '" + s.reference_statistic + "' is not " +
+                       (other == c.statistics.end() ? "defined" : "another statistic"));
+      continue;
+    }
+    // Joint when both are column means of one source: then value - factor * reference is
+    // averaged sample by sample, and its interval carries their correlation.
+    std::vector<std::string> columns;
+    std::vector<double> weights;
+    if (other->source != s.source || !AsWeightedMeans(s, &columns, &weights, 1.0) ||
+        !AsWeightedMeans(*other, &columns, &weights, -s.reference_factor) ||
+        columns.size() > static_cast<std::size_t>(KindColumnCount(StatisticKind::kWeightedSum))) {
+      continue;
+    }
+    StatisticConfig difference;
+    difference.request = MakeRequest(StatisticKind::kWeightedSum, columns,
+                                     s.request.name + " - reference");
+    difference.request.weights = weights;
+    difference.source = s.source;
+    s.reference_difference = difference.request.name;
+    added.push_back(std::move(difference));
+  }
+  for (StatisticConfig& d : added) c.statistics.push_back(std::move(d));
+}
+
 std::optional<Target> Loader::LoadTarget(const YAML::Node& node, double default_confidence) {
   if (!node.IsMap()) {
     Error(node, "target must be a map such as {relative: 0.01} or {absolute: 0.002}");
@@ -373,8 +434,22 @@ std::optional<StatisticConfig> Loader::LoadStatistic(const YAML::Node& node, con
     if (v) s.minimum_time = *v;
     ok = ok && v.has_value();
   }
-  if (node["reference"]) {
-    s.reference = Number(node["reference"], "reference", -1e300, 1e300, false, "a number");
+  if (const YAML::Node reference = node["reference"]; reference && reference.IsMap()) {
+    CheckKeys(reference, {"statistic", "factor"}, "a reference series");
+    if (!reference["statistic"]) {
+      Error(reference, "a reference map names a statistic: {statistic: dpdx, factor: -0.025}");
+      ok = false;
+    } else if (auto r = Text(reference["statistic"], "statistic")) {
+      s.reference_statistic = *r;
+    }
+    if (reference["factor"]) {
+      const auto f = Number(reference["factor"], "factor", -1e300, 1e300, false, "a number");
+      if (f) s.reference_factor = *f;
+      ok = ok && f.has_value();
+    }
+  } else if (reference) {
+    s.reference = Number(reference, "reference", -1e300, 1e300, false,
+                         "a number, or {statistic: NAME, factor: F} for a reference series");
     ok = ok && s.reference.has_value();
   }
   return ok ? std::optional<StatisticConfig>(s) : std::nullopt;
@@ -843,6 +918,7 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
       }
     }
   }
+  ResolveReferenceSeries(statistics, c);
   if (const YAML::Node profiles = root["profiles"]) {
     if (!profiles.IsSequence()) {
       Error(profiles, "profiles must be a list of profiles");

@@ -29,6 +29,14 @@ struct StatisticConfig {
   std::optional<Target> target;
   double minimum_time = 0.0;
   std::optional<double> reference;
+  // A reference that is another statistic times a factor: a wall shear stress against
+  // -delta <dP/dx> when the solver holds the flow rate and writes the gradient as a series.
+  std::string reference_statistic;
+  double reference_factor = 1.0;
+  // The weighted_sum statistic plateau adds for value - factor * reference, averaged sample by
+  // sample (both means or averages of one source, at most three columns in all); empty when the
+  // two are compared as if independent.
+  std::string reference_difference;
   // For the statistics a profile expands into: its name, the point, its wall distance and the
   // quantity (U, uu, uv, k, uuv, ...). Empty profile for an ordinary statistic.
   std::string profile;

@@ -19,7 +19,11 @@ struct ReferenceComparison {
   double reference = 0.0;
   double difference = 0.0;           // value - reference
   double relative_difference = 0.0;  // difference / |reference| (NaN for a zero reference)
-  double half_width = 0.0;           // of the difference: the estimate's own
+  double half_width = 0.0;           // of the difference: the estimate's own for a fixed value
+  // How the difference's uncertainty was found: "value" (a fixed reference: the estimate's own
+  // interval), "joint_series" (value - factor * reference averaged per sample over both series),
+  // "independent" (the two intervals combined as if the series were independent).
+  std::string method = "value";
   std::string words;                 // the verdict as a sentence
 };
 
@@ -27,6 +31,17 @@ struct ReferenceComparison {
 std::string_view VerdictName(ReferenceComparison::Verdict verdict);
 
 ReferenceComparison CompareWithReference(const StatisticEstimate& e, double reference);
+
+// The reference is another statistic times `factor`: a wall shear stress against delta times the
+// mean driving pressure gradient, which a solver holding the flow rate writes as a series. With
+// `joint_difference` (the estimate of value - factor * reference formed per sample from both
+// series at the same times) the verdict uses that interval: the two are correlated, and adding
+// their variances would be wrong. Without it (the series are not sampled together) the two
+// half-widths are combined as if independent, h = sqrt(h_e^2 + factor^2 h_ref^2), and the words
+// say so. Undetermined while either has no interval or drifts.
+ReferenceComparison CompareWithSeriesReference(const StatisticEstimate& e,
+                                               const StatisticEstimate& reference, double factor,
+                                               const StatisticEstimate* joint_difference);
 
 }  // namespace plateau
 

@@ -68,7 +68,7 @@ std::optional<SourceStatistics> SourceStatistics::Make(
     std::optional<StatisticFormula> formula;
     Feed* feed = nullptr;
     if (problem.empty() && request.shared_history.empty()) {
-      formula = StatisticFormula::Make(request.kind, positions, &problem);
+      formula = StatisticFormula::Make(request.kind, positions, &problem, nullptr, request.weights);
       // Keyed by position too: `analyze` may ask for the same statistic twice.
       if (formula) {
         feed = source.FeedFor("statistic:" + name + "#" + std::to_string(r), formula->signals(),

@@ -8,9 +8,16 @@ namespace plateau {
 
 std::optional<StatisticFormula> StatisticFormula::Make(StatisticKind kind, std::vector<int> columns,
                                                        std::string* error,
-                                                       const std::vector<int>* history_signals) {
+                                                       const std::vector<int>* history_signals,
+                                                       std::vector<double> weights) {
   const int expected = KindColumnCount(kind);
-  if (static_cast<int>(columns.size()) != expected) {
+  if (kind == StatisticKind::kWeightedSum) {
+    if (columns.empty() || static_cast<int>(columns.size()) > expected ||
+        weights.size() != columns.size()) {
+      *error = "weighted_sum takes one to three columns and one weight per column";
+      return std::nullopt;
+    }
+  } else if (static_cast<int>(columns.size()) != expected) {
     *error = std::string(KindName(kind)) + " takes " + std::to_string(expected) + " column" +
              (expected == 1 ? "" : "s") + ", got " + std::to_string(columns.size());
     return std::nullopt;
@@ -31,12 +38,15 @@ std::optional<StatisticFormula> StatisticFormula::Make(StatisticKind kind, std::
       }
     }
   }
-  return StatisticFormula(kind, std::move(columns), std::move(signals));
+  return StatisticFormula(kind, std::move(columns), std::move(signals), std::move(weights));
 }
 
 StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns,
-                                   std::vector<int> signals)
-    : kind_(kind), columns_(std::move(columns)), signals_(std::move(signals)) {
+                                   std::vector<int> signals, std::vector<double> weights)
+    : kind_(kind),
+      columns_(std::move(columns)),
+      signals_(std::move(signals)),
+      weights_(std::move(weights)) {
   for (int column : columns_) {
     const auto it = std::find(signals_.begin(), signals_.end(), column);
     signal_of_column_.push_back(static_cast<int>(it - signals_.begin()));
@@ -44,6 +54,7 @@ StatisticFormula::StatisticFormula(StatisticKind kind, std::vector<int> columns,
   switch (kind_) {
     case StatisticKind::kMean:
     case StatisticKind::kAverage:
+    case StatisticKind::kWeightedSum:
       order_ = 1;
       break;
     case StatisticKind::kThirdMoment:
@@ -88,6 +99,13 @@ double StatisticFormula::Value(const MomentLayout& layout, const double* summary
     case StatisticKind::kAverage:
       return 0.5 * (layout.Mean(summary, signal_of_column_[0]) +
                     layout.Mean(summary, signal_of_column_[1]));
+    case StatisticKind::kWeightedSum: {
+      double sum = 0.0;
+      for (std::size_t k = 0; k < weights_.size(); ++k) {
+        sum += weights_[k] * layout.Mean(summary, signal_of_column_[k]);
+      }
+      return sum;
+    }
   }
   return std::numeric_limits<double>::quiet_NaN();
 }
@@ -118,6 +136,15 @@ std::vector<WeightedMoment> StatisticFormula::Linearisation(const MomentLayout& 
       return {{ProductOf({0, 0}), 0.5}, {ProductOf({1, 1}), 0.5}, {ProductOf({2, 2}), 0.5}};
     case StatisticKind::kAverage:
       return {{ProductOf({0}), 0.5}, {ProductOf({1}), 0.5}};
+    case StatisticKind::kWeightedSum: {
+      // Linear: the per-sample weighted sum is exactly what is averaged, so its block values are
+      // the weighted sums of the block means and no term is an approximation.
+      std::vector<WeightedMoment> terms;
+      for (std::size_t k = 0; k < weights_.size(); ++k) {
+        terms.push_back({ProductOf({static_cast<int>(k)}), weights_[k]});
+      }
+      return terms;
+    }
   }
   return {};
 }

@@ -26,9 +26,11 @@ class StatisticFormula {
   // `history_signals` is given, those of a history shared with other statistics (every column must
   // be one of them). Returns nullopt and sets *error when the count is wrong or a column is not in
   // the shared history.
+  // A weighted_sum takes one to three columns and one weight per column.
   static std::optional<StatisticFormula> Make(StatisticKind kind, std::vector<int> columns,
                                               std::string* error,
-                                              const std::vector<int>* history_signals = nullptr);
+                                              const std::vector<int>* history_signals = nullptr,
+                                              std::vector<double> weights = {});
 
   StatisticKind kind() const { return kind_; }
   const std::vector<int>& columns() const { return columns_; }
@@ -50,7 +52,8 @@ class StatisticFormula {
                                             const double* global) const;
 
  private:
-  StatisticFormula(StatisticKind kind, std::vector<int> columns, std::vector<int> signals);
+  StatisticFormula(StatisticKind kind, std::vector<int> columns, std::vector<int> signals,
+                   std::vector<double> weights);
   // Powers selecting the product of the statistic's columns with positions `which` in columns_.
   Powers ProductOf(std::initializer_list<int> which) const;
 
@@ -58,6 +61,7 @@ class StatisticFormula {
   std::vector<int> columns_;
   std::vector<int> signals_;
   std::vector<int> signal_of_column_;  // columns_[k] is signal signal_of_column_[k]
+  std::vector<double> weights_;        // weighted_sum: one per column
   int order_;
 };
 

@@ -6,7 +6,7 @@
 namespace plateau {
 namespace {
 
-constexpr std::array<std::pair<StatisticKind, std::string_view>, 7> kNames{{
+constexpr std::array<std::pair<StatisticKind, std::string_view>, 8> kNames{{
     {StatisticKind::kMean, "mean"},
     {StatisticKind::kVariance, "variance"},
     {StatisticKind::kRms, "rms"},
@@ -14,6 +14,7 @@ constexpr std::array<std::pair<StatisticKind, std::string_view>, 7> kNames{{
     {StatisticKind::kThirdMoment, "third_moment"},
     {StatisticKind::kTke, "tke"},
     {StatisticKind::kAverage, "average"},
+    {StatisticKind::kWeightedSum, "weighted_sum"},
 }};
 
 }  // namespace
@@ -27,7 +28,7 @@ std::string_view KindName(StatisticKind kind) {
 
 std::optional<StatisticKind> ParseKind(std::string_view name) {
   for (const auto& [k, n] : kNames) {
-    if (n == name) return k;
+    if (n == name && k != StatisticKind::kWeightedSum) return k;
   }
   return std::nullopt;
 }
@@ -43,6 +44,7 @@ int KindColumnCount(StatisticKind kind) {
       return 2;
     case StatisticKind::kThirdMoment:
     case StatisticKind::kTke:
+    case StatisticKind::kWeightedSum:
       return 3;
   }
   return 1;

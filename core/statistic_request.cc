@@ -29,6 +29,8 @@ std::string DefaultStatisticName(StatisticKind kind, const std::vector<std::stri
       return "tke(" + joined + ")";
     case StatisticKind::kAverage:
       return "average(" + joined + ")";
+    case StatisticKind::kWeightedSum:
+      return "weighted_sum(" + joined + ")";
   }
   return joined;
 }

@@ -18,6 +18,8 @@ struct StatisticRequest {
   // the point of a probe line: u, v, w), kept to the highest order any of them needs.
   std::string shared_history;
   std::vector<std::string> shared_columns;
+  // weighted_sum only: one weight per column.
+  std::vector<double> weights;
 };
 
 // A request with a history of its own.

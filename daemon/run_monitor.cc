@@ -35,7 +35,7 @@ void WriteTimeToTarget(JsonWriter& json, double remaining, double wall_seconds,
 // The status object of one statistic: the keys of `plateau analyze --json`, plus the stop rule's.
 std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
                           const ConvergenceTracker& tracker, const SnapshotRow& row,
-                          double wall_time) {
+                          const std::optional<ReferenceComparison>& reference, double wall_time) {
   const std::string& state = row.state;
   const std::string& reason = row.state_reason;
   JsonWriter json;
@@ -74,12 +74,18 @@ std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
   }
   WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
   json.Key("reference");
-  if (c.reference) {
-    const ReferenceComparison r = CompareWithReference(e, *c.reference);
+  if (reference) {
+    const ReferenceComparison& r = *reference;
     json.BeginObject();
     json.Field("value", r.reference);
+    if (!c.reference_statistic.empty()) {
+      json.Field("statistic", c.reference_statistic);
+      json.Field("factor", c.reference_factor);
+    }
     json.Field("difference", r.difference);
     json.Field("relative_difference", r.relative_difference);
+    json.Field("half_width", r.half_width);
+    json.Field("method", r.method);
     json.Field("verdict", VerdictName(r.verdict));
     json.Field("words", r.words);
     json.EndObject();
@@ -298,6 +304,9 @@ std::string RunMonitor::Reload(const RunConfig& fresh) {
     mine.target = it->target;
     mine.minimum_time = it->minimum_time;
     mine.reference = it->reference;
+    mine.reference_statistic = it->reference_statistic;
+    mine.reference_factor = it->reference_factor;
+    mine.reference_difference = it->reference_difference;  // used only if it is tracked
     if (target_changed || config_.stop_rule.confirmations != fresh.stop_rule.confirmations) {
       t.tracker.Retarget(mine.target, SettingsFor(fresh, mine));
     }
@@ -414,13 +423,35 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
                                          : RemainingTimeToTarget(e, row.target_half_width);
   const double rate = rate_.PerHour();
   row.remaining_wall = rate > 0.0 ? row.remaining_time / rate * 3600.0 : kNaN;
-  if (c.reference) {
-    row.reference_verdict = std::string(VerdictName(CompareWithReference(e, *c.reference).verdict));
-  }
+  const std::optional<ReferenceComparison> reference = Reference(c, e, options);
+  if (reference) row.reference_verdict = std::string(VerdictName(reference->verdict));
   row.profile = c.profile;
-  row.json = StatisticJson(e, c, t.tracker, row, wall_time);
+  row.json = StatisticJson(e, c, t.tracker, row, reference, wall_time);
   *estimate = std::move(e);
   return row;
+}
+
+std::optional<ReferenceComparison> RunMonitor::Reference(const StatisticConfig& c,
+                                                         const StatisticEstimate& e,
+                                                         const EvaluationOptions& options) {
+  if (c.reference) return CompareWithReference(e, *c.reference);
+  if (c.reference_statistic.empty()) return std::nullopt;
+  // The other statistic (and the joint difference) at this statistic's confidence.
+  const auto evaluate = [&](const std::string& name) -> std::optional<StatisticEstimate> {
+    for (const Tracked& t : tracked_) {
+      if (t.config->request.name != name) continue;
+      const Statistic* statistic = t.tail->Find(name);
+      if (statistic != nullptr) return statistic->Evaluate(options);
+    }
+    return std::nullopt;
+  };
+  const std::optional<StatisticEstimate> reference = evaluate(c.reference_statistic);
+  if (!reference) return std::nullopt;
+  // A difference statistic a reload asked for is not tracked until the daemon restarts.
+  const std::optional<StatisticEstimate> difference =
+      c.reference_difference.empty() ? std::nullopt : evaluate(c.reference_difference);
+  return CompareWithSeriesReference(e, *reference, c.reference_factor,
+                                    difference ? &*difference : nullptr);
 }
 
 SnapshotRow RunMonitor::GroupSnapshot(const GroupConfig& g, const std::vector<SnapshotRow>& rows,

@@ -9,12 +9,14 @@
 #include <spdlog/spdlog.h>
 
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "config/run_config.h"
 #include "core/convergence_tracker.h"
 #include "core/progress_rate.h"
+#include "core/reference_check.h"
 #include "core/status.h"
 #include "daemon/profile_summaries.h"
 #include "daemon/source_tail.h"
@@ -78,6 +80,11 @@ class RunMonitor {
   };
   SourceTail* TailOf(const std::string& source);
   // The row of one statistic; its estimate goes to *estimate (profiles and wall units use it).
+  // The reference verdict of a statistic: against a value, or against another statistic's series
+  // (jointly where the config formed their difference); nullopt without a reference or while the
+  // reference statistic has no data.
+  std::optional<ReferenceComparison> Reference(const StatisticConfig& c, const StatisticEstimate& e,
+                                               const EvaluationOptions& options);
   SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events,
                        StatisticEstimate* estimate);
   SnapshotRow GroupSnapshot(const GroupConfig& group, const std::vector<SnapshotRow>& rows,

@@ -189,6 +189,105 @@ TEST(ConfigLoader, ProfileExpandsIntoPointStatisticsSharingAHistoryPerPoint) {
   EXPECT_NE(bad[1].find("a column pattern needs {i}"), std::string::npos);
 }
 
+TEST(ConfigLoader, ReferenceSeriesInTheSameSourceGetsItsJointDifference) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(R"(sources:
+  - name: walls
+    files: "out/walls/*/balance.dat"
+    scale: {"tau_lo.x": -1, "tau_up.x": -1}
+  - name: other
+    files: "out/gradient/*/dpdx.dat"
+statistics:
+  - {name: dpdx, source: walls, kind: mean, columns: [dpdx]}
+  - name: tau_w
+    source: walls
+    kind: average
+    columns: [tau_lo.x, tau_up.x]
+    reference: {statistic: dpdx, factor: -0.025}
+  - {name: dpdx_apart, source: other, kind: mean, columns: [g]}
+  - {name: tau_lo, source: walls, kind: mean, columns: [tau_lo.x], reference: {statistic: dpdx_apart}}
+)",
+                                "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  ASSERT_EQ(c->sources[0].scales.size(), 2u);
+  EXPECT_EQ(c->sources[0].scales[1].column, "tau_up.x");
+  EXPECT_EQ(c->sources[0].scales[1].factor, -1.0);
+  ASSERT_EQ(c->statistics.size(), 5u);  // the four, and the joint difference of tau_w
+  const StatisticConfig& tau_w = c->statistics[1];
+  EXPECT_EQ(tau_w.reference_statistic, "dpdx");
+  EXPECT_EQ(tau_w.reference_factor, -0.025);
+  EXPECT_EQ(tau_w.reference_difference, "tau_w - reference");
+  const StatisticConfig& difference = c->statistics[4];
+  EXPECT_EQ(difference.request.name, "tau_w - reference");
+  EXPECT_EQ(difference.request.kind, StatisticKind::kWeightedSum);
+  EXPECT_EQ(difference.request.columns,
+            (std::vector<std::string>{"tau_lo.x", "tau_up.x", "dpdx"}));
+  EXPECT_EQ(difference.request.weights, (std::vector<double>{0.5, 0.5, 0.025}));
+  EXPECT_FALSE(difference.target.has_value());
+  // Another source: compared as if independent, no joint statistic.
+  EXPECT_EQ(c->statistics[3].reference_factor, 1.0);
+  EXPECT_TRUE(c->statistics[3].reference_difference.empty());
+}
+
+TEST(ConfigLoader, ReferenceSeriesAndScaleMistakesSayWhatIsWrong) {
+  const auto errors = Errors(R"(sources:
+  - {name: s, files: a.dat, scale: {u: 0}}
+statistics:
+  - {name: u, kind: mean, columns: [u], reference: {statistic: nowhere}}
+  - {name: v, kind: mean, columns: [v], reference: {factor: 2}}
+)");
+  ASSERT_FALSE(errors.empty());
+  EXPECT_EQ(errors.front(), "/runs/ch420/run.yaml:2:40: a scale factor of 0 would erase the column");
+  EXPECT_EQ(errors.back().rfind("/runs/ch420/run.yaml:5:52: a reference map names a statistic", 0), 0u)
+      << errors.back();
+  const auto unknown = Errors(R"(sources:
+  - {name: s, files: a.dat}
+statistics:
+  - {name: u, kind: mean, columns: [u], reference: {statistic: nowhere}}
+)");
+  ASSERT_EQ(unknown.size(), 1u);
+  EXPECT_EQ(unknown[0],
+            "/runs/ch420/run.yaml:4:52: reference statistic 'nowhere' is not defined");
+}
+
+TEST(ConfigLoader, ProfileWallAtTurnsCoordinatesIntoWallDistances) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(R"(sources:
+  - {name: probes, files: "out/probes/*/U"}
+statistics:
+  - {kind: mean, columns: ["U[0].x"]}
+profiles:
+  - name: upper
+    positions: [1.9, 1.95, 1.99]     # y coordinates of probes near the upper wall at y = 2
+    wall_at: 2
+    columns: {u: "U[{i}].x", v: "U[{i}].y", w: "U[{i}].z"}
+    quantities: [U]
+)",
+                                "/runs/ch420/run.yaml", &errors);
+  EXPECT_FALSE(c.has_value());  // distances 0.1, 0.05, 0.01 shrink: listed the wrong way round
+  ASSERT_FALSE(errors.empty());
+  EXPECT_NE(errors[0].message.find("positions must increase away from the wall"),
+            std::string::npos);
+  errors.clear();
+  const auto ok = ParseRunConfig(R"(sources:
+  - {name: probes, files: "out/probes/*/U"}
+statistics:
+  - {kind: mean, columns: ["U[0].x"]}
+profiles:
+  - name: upper
+    positions: [1.99, 1.95, 1.9]
+    wall_at: 2
+    columns: {u: "U[{i}].x", v: "U[{i}].y", w: "U[{i}].z"}
+    quantities: [U]
+)",
+                                 "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(ok.has_value()) << errors.front().ToString();
+  ASSERT_EQ(ok->profiles[0].positions.size(), 3u);
+  EXPECT_NEAR(ok->profiles[0].positions[0], 0.01, 1e-15);
+  EXPECT_NEAR(ok->profiles[0].positions[2], 0.1, 1e-15);
+  EXPECT_EQ(ok->statistics[1].request.columns[0], "U[0].x");
+}
+
 TEST(ConfigLoader, ShippedExampleIsValid) {
   std::vector<ConfigError> errors;
   const auto c = LoadRunConfig(PLATEAU_SOURCE_DIR "/config/example.yaml", &errors);

@@ -6,6 +6,8 @@
 #include <cstdint>
 #include <numbers>
 
+#include "core/reference_check.h"
+#include "core/source_statistics.h"
 #include "core/statistic.h"
 #include "core/student_t.h"
 #include "tests/core/synthetic_series.h"
@@ -148,6 +150,68 @@ TEST(Coverage, ChannelWallShearStressAfterAStartupTransientIsStillCovered) {
   std::printf("channel tau_w after a start-up transient: coverage %.3f\n", after_startup);
   EXPECT_GE(after_startup, 0.92);
   EXPECT_LE(after_startup, 0.97);
+}
+
+// A reference that is itself a series: with the flow rate held fixed, the driving pressure
+// gradient fluctuates with the flow, and the mean wall shear stress must equal -delta <dP/dx>
+// (streamwise momentum balance, e.g. Pope 2000, Sec. 7.1). Invented case: delta = 0.05 m, mean
+// dP/dx = -4.2 Pa/m; both series carry one common slow fluctuation (30 % of the mean, integral
+// time 20 samples) and small own noise (5 %), so they are strongly correlated and the exact
+// difference of the means is 0. The joint-series interval must cover 0 at the nominal rate; the
+// intervals added as if independent are far too wide (they cover nearly always), which is why
+// plateau forms the difference per sample.
+struct ReferenceSeriesCoverage {
+  double joint = 0.0;
+  double independent = 0.0;
+};
+
+ReferenceSeriesCoverage MeasureReferenceSeriesCoverage() {
+  constexpr double kDelta = 0.05;
+  constexpr double kGradient = -4.2;
+  const double phi = std::exp(-1.0 / 20.0);
+  ReferenceSeriesCoverage c;
+  for (int r = 0; r < kReplications; ++r) {
+    const std::vector<double> common =
+        testing::Ar1(kSamples, phi, 120000 + 3 * r, 0.0, std::sqrt(1.0 - phi * phi));
+    const std::vector<double> own_shear = testing::Ar1(kSamples, 0.5, 120001 + 3 * r);
+    const std::vector<double> own_gradient = testing::Ar1(kSamples, 0.5, 120002 + 3 * r);
+    std::vector<StatisticRequest> requests = {
+        MakeRequest(StatisticKind::kMean, {"tau"}), MakeRequest(StatisticKind::kMean, {"dpdx"}),
+        MakeRequest(StatisticKind::kWeightedSum, {"tau", "dpdx"}, "tau - reference")};
+    requests[2].weights = {1.0, kDelta};  // tau - (-delta) dpdx
+    std::string error;
+    std::optional<SourceStatistics> source =
+        SourceStatistics::Make({"t", "tau", "dpdx"}, "", requests, 4096, &error);
+    for (std::size_t t = 0; t < kSamples; ++t) {
+      const double fluctuation = 0.3 * common[t];
+      const double row[3] = {static_cast<double>(t),
+                             -kDelta * kGradient * (1.0 + fluctuation + 0.05 * own_shear[t]),
+                             kGradient * (1.0 + fluctuation + 0.05 * own_gradient[t])};
+      source->Add(row);
+    }
+    const EvaluationOptions options;
+    const StatisticEstimate shear = source->statistics()[0].Evaluate(options);
+    const StatisticEstimate gradient = source->statistics()[1].Evaluate(options);
+    const StatisticEstimate difference = source->statistics()[2].Evaluate(options);
+    const ReferenceComparison joint =
+        CompareWithSeriesReference(shear, gradient, -kDelta, &difference);
+    const ReferenceComparison apart = CompareWithSeriesReference(shear, gradient, -kDelta, nullptr);
+    c.joint += joint.verdict == ReferenceComparison::Verdict::kConsistent;
+    c.independent += apart.verdict == ReferenceComparison::Verdict::kConsistent;
+  }
+  c.joint /= kReplications;
+  c.independent /= kReplications;
+  return c;
+}
+
+TEST(Coverage, WallShearAgainstTheGradientSeriesCoversZeroThroughTheJointSeries) {
+  const ReferenceSeriesCoverage c = MeasureReferenceSeriesCoverage();
+  std::printf("wall shear vs -delta <dP/dx> series: coverage of 0, joint series %.3f, "
+              "as if independent %.3f\n",
+              c.joint, c.independent);
+  EXPECT_GE(c.joint, 0.93);
+  EXPECT_LE(c.joint, 0.97);
+  EXPECT_GE(c.independent, 0.99);  // too wide: the correlation is ignored
 }
 
 }  // namespace
