@@ -51,7 +51,8 @@ class SolverTreeRun : public testing::RunFolder {
   SolverTree tree_;
 };
 
-// Statistic name -> its JSON object, for every statistic of an analyze or status document.
+// Statistic name -> its JSON object, for every statistic of an analyze or status document (which
+// must outlive the map).
 std::map<std::string, const JsonValue*> ByName(const JsonValue& document) {
   std::map<std::string, const JsonValue*> named;
   if (const JsonValue* list = document.Find("statistics")) {
@@ -224,6 +225,69 @@ TEST_F(SolverTreeRun, RestartSegmentWithAChangedHeaderIsNamedWithTheFirstAndNotM
   EXPECT_NE(log.find(Path("output/probes/0/U")), std::string::npos) << log;
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
+}
+
+// The momentum balance of a channel held at a fixed flow rate: the solver writes the wall shear
+// stress (negative, its sign convention) beside the driving pressure gradient it adjusts, and the
+// mean shear must equal -delta <dP/dx> (Pope 2000, Sec. 7.1). Invented numbers: delta = 1,
+// dP/dx about -2.8e-3, one common fluctuation in both (they are correlated).
+TEST_F(SolverTreeRun, ScaledShearAgainstTheGradientSeriesIsJudgedOnTheJointSeries) {
+  const std::vector<double> common = testing::Ar1(SolverTree::kRows, 0.95, 501, 0.0, 0.05);
+  const std::vector<double> own = testing::Ar1(SolverTree::kRows, 0.5, 502, 0.0, 0.01);
+  std::string text = "# Time  wallShear  gradient\n";
+  char line[128];
+  for (std::size_t i = 0; i < SolverTree::kRows; ++i) {
+    std::snprintf(line, sizeof line, "%g %.12e %.12e\n", 0.01 * (i + 1),
+                  -2.8e-3 * (1.0 + common[i] + own[i]), -2.8e-3 * (1.0 + common[i]));
+    text += line;
+  }
+  Append("balance/0/balance.dat", text);
+  std::ofstream(Path("run.yaml")) << R"(run: balance
+sources:
+  - name: balance
+    files: "balance/*/balance.dat"
+    scale: {wallShear: -1}
+statistics:
+  - {name: dpdx, kind: mean, columns: [gradient]}
+  - name: tau_w
+    kind: mean
+    columns: [wallShear]
+    reference: {statistic: dpdx, factor: -1}
+)";
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  ASSERT_TRUE(WaitFor([&] { return Samples(1) == static_cast<std::int64_t>(SolverTree::kRows); },
+                      120))
+      << ReadAll(Path("watch.log"));
+  const auto status = Plateau({"status", Path("run.yaml"), "--json"});
+  daemon.Signal(SIGTERM);
+  EXPECT_EQ(daemon.Wait(30), 0);
+  std::string error;
+  const auto document = JsonValue::Parse(status.out, &error);
+  ASSERT_TRUE(document.has_value()) << error << status.out;
+  const auto named = ByName(*document);
+  ASSERT_EQ(named.count("tau_w"), 1u);
+  ASSERT_EQ(named.count("tau_w - reference"), 1u);  // the joint difference, averaged per sample
+  const JsonValue& tau = *named.at("tau_w");
+  // The scale applies before any statistic: the same number analyze gives with --scale, and the
+  // negative of the unscaled one.
+  const JsonValue analyzed_document =
+      Analyze({Path("balance/0/balance.dat"), "--scale", "wallShear=-1"});
+  const JsonValue unscaled_document = Analyze({Path("balance/0/balance.dat")});
+  const auto analyzed = ByName(analyzed_document);
+  const auto unscaled = ByName(unscaled_document);
+  const double mean = tau.Find("mean")->number();
+  EXPECT_GT(mean, 0.0);
+  EXPECT_NEAR(mean, analyzed.at("wallShear")->Find("mean")->number(), 1e-12 * mean);
+  EXPECT_NEAR(mean, -unscaled.at("wallShear")->Find("mean")->number(), 1e-12 * mean);
+  const JsonValue* reference = tau.Find("reference");
+  ASSERT_NE(reference, nullptr);
+  EXPECT_EQ(reference->Find("method")->string(), "joint_series");
+  EXPECT_EQ(reference->Find("statistic")->string(), "dpdx");
+  EXPECT_EQ(reference->Find("half_width")->number(),
+            named.at("tau_w - reference")->Find("half_width")->number());
+  // Correlated: the joint interval of the difference is much narrower than tau_w's own.
+  EXPECT_LT(reference->Find("half_width")->number(), 0.5 * tau.Find("half_width")->number());
+  EXPECT_NE(reference->Find("words")->string().find("sample by sample"), std::string::npos);
 }
 
 }  // namespace
