@@ -129,18 +129,33 @@ bool WriteProfile(const Series& series, const ProbeLine& line, std::ostream& raw
   return false;
 }
 
-// A column that holds a wall shear stress, by the names solvers give it; empty when none.
+// A column that holds a wall shear stress, by the names solvers and users give it (a
+// `wallShearStress` field's x component, a `tau...` column, or any first signal of a series whose
+// folder says wall shear); empty when none. A guess: the proposal it feeds stays commented out.
 std::string WallShearColumn(const Series& series) {
-  for (const std::string& c : series.first().columns) {
-    if (c.find("wallShearStress") != std::string::npos && c.size() > 2 &&
-        c.compare(c.size() - 2, 2, ".x") == 0) {
-      return c;
-    }
+  const std::vector<std::string>& columns = series.first().columns;
+  const auto ends_with_x = [](const std::string& c) {
+    return c.size() > 2 && c.compare(c.size() - 2, 2, ".x") == 0;
+  };
+  for (std::size_t i = 1; i < columns.size(); ++i) {
+    const std::string& c = columns[i];
+    if (c.find("wallShearStress") != std::string::npos && ends_with_x(c)) return c;
+    if (c.rfind("tau", 0) == 0 && (c.find('.') == std::string::npos || ends_with_x(c))) return c;
   }
-  return "";
+  const std::string& folder = series.first().segment.series_folder;
+  const bool shear_folder = folder.find("allShear") != std::string::npos;
+  return shear_folder && columns.size() > 1 ? columns[1] : "";
 }
 
-void WriteWallUnitsProposal(const std::vector<Series>& series, std::ostream& out) {
+// The name init gives the mean of `column`: the column itself, or "<source>/<column>" where
+// several sources have a column of that name.
+std::string MeanName(const Series& s, const std::string& column,
+                     const std::map<std::string, int>& column_uses) {
+  return column_uses.at(column) > 1 ? s.name + "/" + column : column;
+}
+
+void WriteWallUnitsProposal(const std::vector<Series>& series,
+                            const std::map<std::string, int>& column_uses, std::ostream& out) {
   for (const Series& s : series) {
     const std::string column = WallShearColumn(s);
     if (column.empty()) continue;
@@ -149,8 +164,8 @@ void WriteWallUnitsProposal(const std::vector<Series>& series, std::ostream& out
         << "often kinematic\n# (m^2/s^2: then density 1) and its streamwise component negative: "
         << "add to the source\n#   scale: {" << Quoted(column) << ": -1}\n"
         << "# wall_units:\n"
-        << "#   wall_shear: " << Quoted(s.name + "/" + column)
-        << "   # a mean statistic defined below\n"
+        << "#   wall_shear: " << Quoted(MeanName(s, column, column_uses))
+        << "   # its mean, defined above\n"
         << "#   viscosity: FILL_IN        # kinematic viscosity, m^2/s\n"
         << "#   density: FILL_IN          # kg/m^3; 1 when the wall shear stress is kinematic\n"
         << "#   half_height: FILL_IN      # channel half-height, for Re_tau and the momentum "
@@ -194,7 +209,7 @@ void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& p
     const SegmentSample& first = s.first();
     for (std::size_t c = 1; c < first.columns.size(); ++c) {
       const std::string& column = first.columns[c];
-      const std::string name = column_uses[column] > 1 ? s.name + "/" + column : column;
+      const std::string name = MeanName(s, column, column_uses);
       out << "  - name: " << Quoted(name) << "\n"
           << "    source: " << Quoted(s.name) << "\n"
           << "    kind: mean\n"
@@ -223,7 +238,7 @@ void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& p
     }
   }
   if (!profiles.str().empty()) out << (any_active ? "\nprofiles:\n" : "\n# profiles:\n") << profiles.str();
-  WriteWallUnitsProposal(catalog.series, out);
+  WriteWallUnitsProposal(catalog.series, column_uses, out);
 }
 
 }  // namespace

@@ -67,13 +67,17 @@ std::string ChannelProbes::WallHeader() {
 }
 
 std::string ChannelProbes::LineHeader() {
-  std::string header = "# velocity [m/s] at the probe line's points, y [m] =";
-  for (double y : kLinePositions) Append(header, y);
-  header += "\n# time";
+  // The layout solvers write for a set of probes: one location line per probe (x, y, z in m; the
+  // lower wall at y = 0, so y is the wall distance), the probe numbers, then the time column's name.
+  std::string header;
+  char line[96];
   for (int i = 0; i < kLinePoints; ++i) {
-    for (const char* c : {"u", "v", "w"}) header += " " + std::string(c) + std::to_string(i);
+    std::snprintf(line, sizeof line, "# Probe %d (0.3 %g 0.0125)\n", i, kLinePositions[i]);
+    header += line;
   }
-  return header + "\n";
+  header += "#           Probe";
+  for (int i = 0; i < kLinePoints; ++i) header += "  " + std::to_string(i);
+  return header + "\n#            Time\n";
 }
 
 std::string ChannelProbes::ForcesHeader() {
@@ -98,9 +102,11 @@ std::string ChannelProbes::LineRow(double t) {
     const double a = p.a.Next();
     const double b = p.b.Next();
     const double r = p.uv_correlation;
+    row += " (";
     Append(row, p.u_mean * (1.0 + 0.3 * s) + growth * p.u_rms * a);
     Append(row, growth * p.v_rms * (r * a + std::sqrt(1.0 - r * r) * b));
     Append(row, growth * p.w_rms * p.c.Next());
+    row += ")";
   }
   return row + "\n";
 }

@@ -6,7 +6,9 @@
 //   demo_channel_solver --out DIR [--speed-up X] [--duration S] [--restart-at S] [--overlap S]
 //                       [--restart-pause WALL_S] [--dt S] [--seed N]
 //
-// Writes DIR/run1/{wall,line,forces}.dat, then after the "crash" DIR/run2/..., and
+// Writes a solver's output tree, one folder per function and one per job's start time:
+// DIR/output/{wallShear/0/wall.dat, probes/0/U, forces/0/forces.dat}, then after the "crash" the
+// same under the restart time (DIR/output/wallShear/38/wall.dat, ...), and
 // DIR/reichardt_u_plus.dat (the reference profile: y+ and U+ of Reichardt's law). Stops cleanly
 // when DIR/STOP appears (as many solvers do), at --duration simulated seconds, or on SIGTERM.
 #include <atomic>
@@ -112,11 +114,15 @@ void WriteReference(const std::filesystem::path& path) {
 // until `end`, STOP or SIGTERM. Returns the time reached. `die` leaves half a row in each file.
 class SolverJob {
  public:
-  SolverJob(const Options& o, ChannelProbes& probes, const std::filesystem::path& folder)
+  SolverJob(const Options& o, ChannelProbes& probes, const std::filesystem::path& output,
+            const std::string& start_time)
       : o_(o), probes_(probes) {
-    wall_ = OpenProbeFile(folder / "wall.dat", ChannelProbes::WallHeader());
-    line_ = OpenProbeFile(folder / "line.dat", ChannelProbes::LineHeader());
-    forces_ = OpenProbeFile(folder / "forces.dat", ChannelProbes::ForcesHeader());
+    // Each function of the solver writes into OUTPUT/<function>/<start time>/<file>.
+    wall_ = OpenProbeFile(output / "wallShear" / start_time / "wall.dat",
+                          ChannelProbes::WallHeader());
+    line_ = OpenProbeFile(output / "probes" / start_time / "U", ChannelProbes::LineHeader());
+    forces_ = OpenProbeFile(output / "forces" / start_time / "forces.dat",
+                            ChannelProbes::ForcesHeader());
   }
   ~SolverJob() {
     for (std::FILE* f : {wall_, line_, forces_}) std::fclose(f);
@@ -142,7 +148,7 @@ class SolverJob {
   // The job is killed while writing: each file ends in half a row.
   void Die(long step) {
     std::fprintf(wall_, "%.4f 2.8", step * o_.dt);
-    std::fprintf(line_, "%.4f 1.2e-02 3.", step * o_.dt);
+    std::fprintf(line_, "%.4f (1.2e-02 3.", step * o_.dt);
     std::fprintf(forces_, "%.4f 1.1", step * o_.dt);
   }
 
@@ -163,7 +169,7 @@ class SolverJob {
 
   static std::string TimeFieldWithNan(double t) {
     std::string row = std::to_string(t);
-    for (int i = 0; i < 3 * kLinePoints; ++i) row += " nan";
+    for (int i = 0; i < kLinePoints; ++i) row += " (nan nan nan)";
     return row + "\n";
   }
 
@@ -173,6 +179,11 @@ class SolverJob {
   std::FILE* line_;
   std::FILE* forces_;
 };
+
+// The simulated time the resubmitted job restarts from (its checkpoint): names its folders.
+double RestartTime(long crash_step, const Options& o) {
+  return std::max(0L, crash_step - std::lround(o.overlap / o.dt)) * o.dt;
+}
 
 }  // namespace
 
@@ -193,7 +204,7 @@ int main(int argc, char** argv) {
 
   long step = 0;
   {
-    SolverJob first(o, probes, o.out / "run1");
+    SolverJob first(o, probes, o.out / "output", "0");
     step = first.Run(0, crash_step);
     if (first.StopRequested() || step >= last_step) {
       std::printf("demo_channel_solver: stopped at t = %.3f s\n", step * o.dt);
@@ -203,13 +214,15 @@ int main(int argc, char** argv) {
   }
   std::printf(
       "demo_channel_solver: job 1 died at t = %.3f s; resubmitted, restarting from the "
-      "checkpoint at t = %.3f s into run2/\n",
-      step * o.dt, step * o.dt - o.overlap);
+      "checkpoint at t = %.3f s into output/*/%g/\n",
+      step * o.dt, step * o.dt - o.overlap, RestartTime(step, o));
   std::fflush(stdout);
   std::this_thread::sleep_for(std::chrono::duration<double>(o.restart_pause));
 
-  SolverJob second(o, probes, o.out / "run2");
   const long restart_step = std::max(0L, step - std::lround(o.overlap / o.dt));
+  char start_time[32];
+  std::snprintf(start_time, sizeof start_time, "%g", RestartTime(step, o));
+  SolverJob second(o, probes, o.out / "output", start_time);
   step = second.Run(restart_step, last_step);
   std::printf("demo_channel_solver: %s at t = %.3f s\n",
               second.StopRequested() ? "stopped" : "reached the planned end", step * o.dt);

@@ -10,6 +10,7 @@
 #include <map>
 #include <sstream>
 
+#include "config/config_loader.h"
 #include "daemon/analyze_command.h"
 #include "daemon/json_value.h"
 #include "tests/daemon/run_folder.h"
@@ -93,6 +94,25 @@ TEST_F(SolverTreeRun, InitWritesOneSourcePerSeriesWithExactGlobsAndLeavesOutWhat
   EXPECT_EQ(validate.exit_code, 0) << validate.err << yaml;
   EXPECT_NE(validate.out.find("4 sources"), std::string::npos) << validate.out;
   EXPECT_NE(validate.out.find("source 'wallShearLower': 2 files match"), std::string::npos);
+
+  // The proposal, uncommented and filled in as its comment says, is a valid wall_units block.
+  std::istringstream lines(yaml);
+  std::string filled;
+  bool in_proposal = false;
+  for (std::string line; std::getline(lines, line);) {
+    in_proposal = line == "# wall_units:" || (in_proposal && line.rfind("#   ", 0) == 0);
+    if (in_proposal) {
+      line = line.substr(2);
+      const std::size_t fill = line.find("FILL_IN");
+      if (fill != std::string::npos) line.replace(fill, 7, "1.5e-5");
+    }
+    filled += line + "\n";
+  }
+  std::vector<ConfigError> errors;
+  const auto config = ParseRunConfig(filled, Path("filled.yaml"), &errors);
+  ASSERT_TRUE(config.has_value()) << errors.front().ToString() << "\n" << filled;
+  ASSERT_TRUE(config->wall_units.has_value());
+  EXPECT_EQ(config->wall_units->wall_shear, "wallShearLower/areaAverage(wallShearStress).x");
 }
 
 TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncutSeries) {

@@ -2,9 +2,12 @@
 // "no crash, no leak, no undefined behaviour" it checks the parser's contracts on every input:
 // feeding the bytes in one piece, in chunks, or one by one gives the same rows and bad lines;
 // every row has one finite value per column; consumed plus pending bytes account for the input;
-// and a parser resumed at the consumed offset (a daemon restart) continues exactly as the
-// uninterrupted one. A broken contract aborts, which libFuzzer reports as a crash.
+// a parser resumed at the consumed offset (a daemon restart) continues exactly as the
+// uninterrupted one; and a probe-description header gives the same probes, one per probe field,
+// with distinct column names, however the bytes arrive. A broken contract aborts, which libFuzzer reports as a crash.
+#include <algorithm>
 #include <cmath>
+#include <cstring>
 #include <cstdint>
 #include <string>
 #include <string_view>
@@ -22,6 +25,8 @@ struct Recorded {
   std::vector<std::uint64_t> row_lines;
   std::vector<double> values;
   std::vector<std::uint64_t> bad_lines;
+  std::vector<int> probe_ids;
+  std::vector<double> probe_positions;  // compared bit for bit: NaN marks a probe without one
 };
 
 class RecordingSink : public plateau::RowSink {
@@ -46,8 +51,13 @@ class RecordingSink : public plateau::RowSink {
 
 bool Same(const Recorded& a, const Recorded& b) {
   // Values compared bit for bit through ==: every value is finite, so == is exact here.
+  const auto same_bits = [](const std::vector<double>& x, const std::vector<double>& y) {
+    return x.size() == y.size() &&
+           (x.empty() || std::memcmp(x.data(), y.data(), x.size() * sizeof(double)) == 0);
+  };
   return a.columns == b.columns && a.row_lines == b.row_lines && a.values == b.values &&
-         a.bad_lines == b.bad_lines;
+         a.bad_lines == b.bad_lines && a.probe_ids == b.probe_ids &&
+         same_bits(a.probe_positions, b.probe_positions);
 }
 
 Recorded FeedInChunks(std::string_view bytes, std::size_t chunk, plateau::RowParser& parser) {
@@ -57,6 +67,22 @@ Recorded FeedInChunks(std::string_view bytes, std::size_t chunk, plateau::RowPar
     parser.Feed(bytes.substr(at, chunk), sink);
   if (parser.consumed_bytes() + parser.pending_bytes() != bytes.size()) {
     Fail("consumed and pending bytes do not add up to the input");
+  }
+  for (const plateau::ProbeLocation& p : parser.probes()) {
+    out.probe_ids.push_back(p.id);
+    out.probe_positions.insert(out.probe_positions.end(), p.position.begin(), p.position.end());
+  }
+  if (!parser.probes().empty()) {
+    // Probe columns: the time and at least one per probe, every name distinct.
+    if (out.columns.size() < parser.probes().size() + 1) Fail("fewer probe columns than probes");
+    std::vector<std::string> names = out.columns;
+    std::sort(names.begin(), names.end());
+    if (std::adjacent_find(names.begin(), names.end()) != names.end() &&
+        std::adjacent_find(parser.probes().begin(), parser.probes().end(),
+                           [](const auto& a, const auto& b) { return a.id == b.id; }) ==
+            parser.probes().end()) {
+      Fail("distinct probes gave columns of the same name");
+    }
   }
   return out;
 }
@@ -70,19 +96,25 @@ int RowParserOneInput(const std::uint8_t* data, std::size_t size) {
   const std::size_t chunk = 1 + data[0] % 17;
   const std::string_view bytes(reinterpret_cast<const char*>(data) + 1, size - 1);
 
-  plateau::RowParser whole_parser;
+  // Probe columns are named after the file: the same for every way of feeding.
+  const auto named_parser = [] {
+    plateau::RowParser parser;
+    parser.set_field_name("U");
+    return parser;
+  };
+  plateau::RowParser whole_parser = named_parser();
   const Recorded whole = FeedInChunks(bytes, bytes.size() + 1, whole_parser);
-  plateau::RowParser chunked_parser;
+  plateau::RowParser chunked_parser = named_parser();
   if (!Same(whole, FeedInChunks(bytes, chunk, chunked_parser))) {
     Fail("chunked feeding differs from feeding the whole");
   }
-  plateau::RowParser byte_parser;
+  plateau::RowParser byte_parser = named_parser();
   if (!Same(whole, FeedInChunks(bytes, 1, byte_parser))) {
     Fail("byte-by-byte feeding differs from feeding the whole");
   }
 
   // A restart: the first parser stops somewhere, a new one resumes at its consumed offset.
-  plateau::RowParser first;
+  plateau::RowParser first = named_parser();
   const std::size_t stop = (bytes.size() * data[0]) / 255;
   const Recorded before = FeedInChunks(bytes.substr(0, stop), stop + 1, first);
   if (!first.has_columns()) return 0;  // the daemon re-reads from the start in that case
@@ -94,6 +126,8 @@ int RowParserOneInput(const std::uint8_t* data, std::size_t size) {
   RecordingSink sink(&after);
   resumed.Feed(bytes.substr(first.consumed_bytes()), sink);
   Recorded joined = before;
+  joined.probe_ids = whole.probe_ids;  // a resumed parser has no header lines to read them from
+  joined.probe_positions = whole.probe_positions;
   joined.row_lines.insert(joined.row_lines.end(), after.row_lines.begin(), after.row_lines.end());
   joined.values.insert(joined.values.end(), after.values.begin(), after.values.end());
   joined.bad_lines.insert(joined.bad_lines.end(), after.bad_lines.begin(), after.bad_lines.end());
