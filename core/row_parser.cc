@@ -1,5 +1,6 @@
 #include "core/row_parser.h"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <cstdio>
@@ -326,16 +327,24 @@ bool RowParser::NameProbeColumns(const std::vector<std::size_t>& sizes) {
   } else {
     return false;
   }
-  names_.push_back(time_name);
+  std::vector<std::string> names{time_name};
   for (std::size_t p = 0; p < ids.size(); ++p) {
     const std::string probe = field_name_ + "[" + std::to_string(ids[p]) + "]";
     if (sizes[p + 1] == 1) {
-      names_.push_back(probe);
+      names.push_back(probe);
     } else {
       for (std::size_t k = 0; k < sizes[p + 1]; ++k) {
-        names_.push_back(probe + ComponentSuffix(sizes[p + 1], k));
+        names.push_back(probe + ComponentSuffix(sizes[p + 1], k));
       }
     }
+  }
+  // A repeated probe number, or a time column named like a probe column, would make two columns
+  // of one name: no column could then be told apart by it.
+  std::vector<std::string> sorted = names;
+  std::sort(sorted.begin(), sorted.end());
+  if (std::adjacent_find(sorted.begin(), sorted.end()) != sorted.end()) return false;
+  names_ = std::move(names);
+  for (std::size_t p = 0; p < ids.size(); ++p) {
     ProbeLocation location;
     location.id = ids[p];
     location.position.fill(std::numeric_limits<double>::quiet_NaN());

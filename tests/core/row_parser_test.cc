@@ -126,6 +126,19 @@ TEST(RowParser, ProbeHeaderThatDoesNotFitTheRowsFallsBackToPlainNames) {
   EXPECT_TRUE(parser.probes().empty());
 }
 
+// Found by fuzzing: a "time" line that reads like a probe column gave two columns one name.
+TEST(RowParser, ProbeHeaderThatWouldRepeatAColumnNameFallsBackToPlainNames) {
+  RowParser parser;
+  parser.set_field_name("U");
+  Collected c;
+  parser.Feed("# Probe 4 (0 0.01 0)\n# Probe 7 (0 0.02 0)\n#  Probe  4  7\n#  U[7]\n0.1 1 2\n", c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"col1", "col2", "col3"}));
+  RowParser repeated;
+  Collected r;
+  repeated.Feed("# Probe 1 (0 0 0)\n# Probe 1 (0 1 0)\n# Time\n0.1 1 2\n", r);
+  EXPECT_EQ(r.names, (std::vector<std::string>{"col1", "col2", "col3"}));
+}
+
 TEST(RowParser, SurfaceAverageHeaderNamesTheThreeComponentsOfItsOneField) {
   const Collected c = Parse(
       "# Region type : patch lowerWall\n"
