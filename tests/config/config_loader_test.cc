@@ -292,8 +292,11 @@ TEST(ConfigLoader, ShippedExampleIsValid) {
   std::vector<ConfigError> errors;
   const auto c = LoadRunConfig(PLATEAU_SOURCE_DIR "/config/example.yaml", &errors);
   ASSERT_TRUE(c.has_value()) << errors.front().ToString();
-  EXPECT_EQ(c->statistics.size(), 6u + 6u * 6u);  // six statistics, six points of six quantities
-  EXPECT_EQ(c->statistics[5].request.name, "m3(u,u,v)");
+  // Seven statistics, the joint difference of tau_w's reference series, six points of six
+  // quantities.
+  EXPECT_EQ(c->statistics.size(), 7u + 1u + 6u * 6u);
+  EXPECT_EQ(c->statistics[6].request.name, "m3(u,u,v)");
+  EXPECT_EQ(c->statistics[7].request.name, "tau_w - reference");
   EXPECT_EQ(c->groups.at(0).members.size(), 2u);
   EXPECT_EQ(c->wall_units->wall_shear, "tau_w");
   EXPECT_EQ(c->sources[1].columns.size(), 4u);
