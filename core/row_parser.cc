@@ -88,9 +88,9 @@ std::string ComponentSuffix(std::size_t n, std::size_t k) {
   static const char* const kVector[] = {"x", "y", "z"};
   static const char* const kSymmTensor[] = {"xx", "xy", "xz", "yy", "yz", "zz"};
   static const char* const kTensor[] = {"xx", "xy", "xz", "yx", "yy", "yz", "zx", "zy", "zz"};
-  if (n == 3) return std::string(".") + kVector[k];
-  if (n == 6) return std::string(".") + kSymmTensor[k];
-  if (n == 9) return std::string(".") + kTensor[k];
+  if (n == 3 && k < 3) return std::string(".") + kVector[k];
+  if (n == 6 && k < 6) return std::string(".") + kSymmTensor[k];
+  if (n == 9 && k < 9) return std::string(".") + kTensor[k];
   return "." + std::to_string(k);
 }
 

@@ -220,13 +220,12 @@ class AnalyzeSink : public RowSink {
     std::string error;
     source_ = SourceStatistics::Make(names, options_.time_column, requests_, options_.capacity,
                                      &error);
-    if (!source_) {
-      error_ = summary_.path + ": " + error;
-    } else if (!source_->problems().empty()) {
-      error_ = summary_.path + ": " + source_->problems().front().message;
-    } else if (!source_->SetScales(options_.scales, &error)) {
-      error_ = summary_.path + ": " + error;
+    if (source_ && !source_->problems().empty()) {
+      error = source_->problems().front().message;
+    } else if (source_) {
+      source_->SetScales(options_.scales, &error);  // leaves `error` empty when every column is known
     }
+    if (!source_ || !error.empty()) error_ = summary_.path + ": " + error;
   }
 
   void OnRow(std::uint64_t, const double* values) override {

@@ -68,12 +68,12 @@ SegmentSample Sample(const std::string& path, const std::string& time_column,
     SegmentSample s;
     std::vector<double> sum_sq;
     int time_index = 0;
-    const std::string* time_column = nullptr;
+    std::string time_column;
     void OnColumns(const std::vector<std::string>& names) override {
       s.columns = names;
       s.mean.assign(names.size(), 0.0);
       sum_sq.assign(names.size(), 0.0);
-      time_index = time_column->empty() ? 0 : std::max(0, ResolveColumn(names, *time_column));
+      time_index = time_column.empty() ? 0 : std::max(0, ResolveColumn(names, time_column));
     }
     void OnRow(std::uint64_t, const double* values) override {
       if (s.rows >= kSampleRows) return;
@@ -91,7 +91,7 @@ SegmentSample Sample(const std::string& path, const std::string& time_column,
                                                  std::string(reason);
     }
   } sink;
-  sink.time_column = &time_column;
+  sink.time_column = time_column;
   RowParser parser = ParserFor(path);
   const FileReadResult read = ReadProbeFile(path, 0, parser, sink, [&] {
     return sink.s.rows < kSampleRows && sink.s.bad_lines < kSampleRows;
@@ -161,16 +161,16 @@ double FirstDataTime(const std::string& path, const std::string& time_column) {
   struct FirstRow : RowSink {
     std::vector<std::string> names;
     double time = std::numeric_limits<double>::infinity();
-    const std::string* time_column = nullptr;
+    std::string time_column;
     void OnColumns(const std::vector<std::string>& n) override { names = n; }
     void OnRow(std::uint64_t, const double* values) override {
       if (!std::isinf(time)) return;
-      const int index = time_column->empty() ? 0 : ResolveColumn(names, *time_column);
+      const int index = time_column.empty() ? 0 : ResolveColumn(names, time_column);
       if (index >= 0) time = values[index];
     }
     void OnBadLine(std::uint64_t, std::string_view) override {}
   } first;
-  first.time_column = &time_column;
+  first.time_column = time_column;
   RowParser parser = ParserFor(path);
   // The first mebibyte at most: headers are far shorter, and a file of garbage is not read whole.
   ReadProbeFile(path, 0, parser, first, [&] { return false; });
