@@ -1,6 +1,7 @@
 #include "core/probe_header.h"
 
 #include <charconv>
+#include <cmath>
 #include <optional>
 
 namespace plateau {
@@ -44,6 +45,18 @@ std::optional<double> Number(std::string_view word) {
 bool IsProbeWord(std::string_view word) { return word == "Probe" || word == "probe"; }
 
 }  // namespace
+
+bool SameProbes(const std::vector<ProbeLocation>& a, const std::vector<ProbeLocation>& b) {
+  if (a.size() != b.size()) return false;
+  for (std::size_t p = 0; p < a.size(); ++p) {
+    if (a[p].id != b[p].id) return false;
+    for (int k = 0; k < 3; ++k) {
+      const double x = a[p].position[k], y = b[p].position[k];
+      if (x != y && !(std::isnan(x) && std::isnan(y))) return false;
+    }
+  }
+  return true;
+}
 
 bool ProbeHeader::IsProbeList(std::string_view text) {
   const std::vector<std::string_view> words = Words(text);

@@ -17,6 +17,10 @@ struct ProbeLocation {
   std::array<double, 3> position{};  // x, y, z in the solver's length unit
 };
 
+// True when both lists name the same probes at the same locations, in the same order; a probe
+// without a location line (NaN coordinates) equals one without a location line.
+bool SameProbes(const std::vector<ProbeLocation>& a, const std::vector<ProbeLocation>& b);
+
 class ProbeHeader {
  public:
   // Reads one comment line, without its '#'. Lines that describe no probe are ignored.

@@ -120,13 +120,7 @@ std::string NotASeries(const SegmentSample& s) {
 }
 
 bool SameLayout(const SegmentSample& a, const SegmentSample& b) {
-  if (a.columns != b.columns || a.probes.size() != b.probes.size()) return false;
-  for (std::size_t p = 0; p < a.probes.size(); ++p) {
-    if (a.probes[p].id != b.probes[p].id || a.probes[p].position != b.probes[p].position) {
-      return false;
-    }
-  }
-  return true;
+  return a.columns == b.columns && SameProbes(a.probes, b.probes);
 }
 
 // Names from the series' own folder; where two series share it, the file's stem is added.

@@ -97,16 +97,22 @@ class SourceTail::FileSink : public RowSink {
       }
       names = wanted;
     }
+    // Probe locations are known for files whose header was read in this process; a restored
+    // source has none to compare with (they are behind the checkpoint's offsets).
+    const std::vector<ProbeLocation>& probes = file_.parser.probes();
+    const bool moved = !tail_.layout_probes_.empty() && !SameProbes(probes, tail_.layout_probes_);
     if (!tail_.source_) {
       tail_.StartSource(names, file_.path);
-    } else if (names != tail_.source_->columns()) {
+      tail_.layout_probes_ = probes;
+    } else if (names != tail_.source_->columns() || moved) {
       // A restart segment with another header (a probe added or moved): never merged column by
       // column with the segments before it.
       tail_.log_->error(
-          "source '{}': the header of {} differs from that of {} ({} columns: {}; against {}: {}); "
+          "source '{}': the header of {} differs from that of {} ({} columns: {}; against {}: {}{}); "
           "a probe added or moved at a restart? The file is ignored: give it a source of its own",
           tail_.config_.name, file_.path, tail_.layout_file_, names.size(), Joined(names),
-          tail_.source_->columns().size(), Joined(tail_.source_->columns()));
+          tail_.source_->columns().size(), Joined(tail_.source_->columns()),
+          moved ? "; the same names at other probe locations" : "");
       file_.layout_mismatch = true;
     }
   }
@@ -303,8 +309,10 @@ bool SourceTail::Poll(double wall_time) {
   // A file not read yet is ordered by its first data time, looked up without reading it: the
   // glob lists start-time folders as text (1000 before 250), and a later segment read first would
   // make every row of the earlier one look like restart overlap.
+  // Only files never read: a file read so far without a row stays last until its rows come.
   for (TrackedFile& f : files_) {
-    if (std::isnan(f.first_time) && !f.vanished) {
+    const bool never_read = f.parser.consumed_bytes() == 0 && f.parser.pending_bytes() == 0;
+    if (std::isnan(f.first_time) && never_read && !f.vanished) {
       const double t = FirstDataTime(f.path, config_.time_column);
       if (!std::isinf(t)) f.first_time = t;
     }

@@ -90,6 +90,7 @@ class SourceTail {
   double last_sample_wall_time_ = std::numeric_limits<double>::quiet_NaN();
   std::uint64_t overlap_reported_ = 0;
   std::string layout_file_;  // the file whose header set the source's columns
+  std::vector<ProbeLocation> layout_probes_;  // its probe locations, when read in this process
 };
 
 }  // namespace plateau

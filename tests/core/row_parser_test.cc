@@ -139,6 +139,21 @@ TEST(RowParser, ProbeHeaderThatWouldRepeatAColumnNameFallsBackToPlainNames) {
   EXPECT_EQ(r.names, (std::vector<std::string>{"col1", "col2", "col3"}));
 }
 
+TEST(RowParser, ProbesWithoutLocationsCompareEqualAndAMovedProbeDoesNot) {
+  RowParser a, b, moved;
+  Collected ca, cb, cm;
+  a.Feed("# Probe 0 1\n# Time\n0.1 1 2\n", ca);  // numbers, no locations: NaN coordinates
+  b.Feed("# Probe 0 1\n# Time\n0.2 3 4\n", cb);
+  EXPECT_TRUE(SameProbes(a.probes(), b.probes()));
+  moved.Feed("# Probe 0 (0 0 0)\n# Probe 1 (0 1 0)\n# Time\n0.1 1 2\n", cm);
+  RowParser same;
+  Collected cs;
+  same.Feed("# Probe 0 (0 0 0)\n# Probe 1 (0 2 0)\n# Time\n0.1 1 2\n", cs);
+  EXPECT_EQ(cm.names, cs.names);
+  EXPECT_FALSE(SameProbes(moved.probes(), same.probes()));
+  EXPECT_FALSE(SameProbes(a.probes(), moved.probes()));
+}
+
 TEST(RowParser, SurfaceAverageHeaderNamesTheThreeComponentsOfItsOneField) {
   const Collected c = Parse(
       "# Region type : patch lowerWall\n"

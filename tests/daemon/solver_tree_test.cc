@@ -247,6 +247,46 @@ TEST_F(SolverTreeRun, RestartSegmentWithAChangedHeaderIsNamedWithTheFirstAndNotM
   EXPECT_EQ(daemon.Wait(30), 0);
 }
 
+TEST_F(SolverTreeRun, RestartSegmentWithAMovedProbeIsNotMergedEither) {
+  // The job restarted at 60 s with probe 2 moved: the same column names, another location.
+  const std::string header = tree_.series()[3].header;
+  const std::string moved_header = std::string(header).replace(header.find("0.031"), 5, "0.045");
+  std::string rows;
+  for (int i = 1; i <= 200; ++i) {
+    rows += std::to_string(60 + 0.01 * i);
+    for (int p = 0; p < 5; ++p) rows += " (0.5 0.01 0.0)";
+    rows += "\n";
+  }
+  Append("output/probes/60/U", moved_header + rows);
+  const JsonValue tree = Analyze({Path("output")});
+  bool left_out = false;
+  for (const JsonValue& f : tree.Find("left_out")->array()) {
+    left_out = left_out || f.Find("path")->string() == Path("output/probes/60/U");
+  }
+  EXPECT_TRUE(left_out);
+
+  const auto init = Plateau({"init", Path("output")});
+  ASSERT_EQ(init.exit_code, 0) << init.err;
+  std::ofstream(Path("run.yaml")) << init.out;
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  const std::string log_path = LogPath();
+  ASSERT_TRUE(WaitFor(
+      [&] { return ReadAll(log_path).find("at other probe locations") != std::string::npos; }, 60))
+      << ReadAll(log_path);
+  EXPECT_NE(ReadAll(log_path).find(Path("output/probes/60/U")), std::string::npos);
+  ASSERT_TRUE(WaitFor([&] { return Samples() == static_cast<std::int64_t>(SolverTree::kRows); },
+                      60));
+  daemon.Signal(SIGTERM);
+  EXPECT_EQ(daemon.Wait(30), 0);
+  const auto latest = Latest();
+  ASSERT_TRUE(latest.has_value());
+  for (const SnapshotRow& row : latest->statistics) {
+    if (row.statistic.rfind("U[", 0) == 0) {
+      EXPECT_NE(row.json.find("\"samples_total\":6000,"), std::string::npos) << row.statistic;
+    }
+  }
+}
+
 // The momentum balance of a channel held at a fixed flow rate: the solver writes the wall shear
 // stress (negative, its sign convention) beside the driving pressure gradient it adjusts, and the
 // mean shear must equal -delta <dP/dx> (Pope 2000, Sec. 7.1). Invented numbers: delta = 1,
