@@ -319,6 +319,8 @@ bool RowParser::NameProbeColumns(const std::vector<std::size_t>& sizes) {
   // each row is the time and one field per probe (a value, or a group for a vector or tensor).
   const std::vector<int> ids = probe_header_.ColumnProbeIds();
   if (ids.empty() || sizes.size() != ids.size() + 1 || sizes[0] != 1) return false;
+  // An empty group `()` is a probe without a value: the row does not have the layout.
+  if (std::find(sizes.begin(), sizes.end(), std::size_t{0}) != sizes.end()) return false;
   std::string time_name;
   if (last_comment_tokens_.size() == 1) {
     time_name = last_comment_tokens_[0];

@@ -139,6 +139,16 @@ TEST(RowParser, ProbeHeaderThatWouldRepeatAColumnNameFallsBackToPlainNames) {
   EXPECT_EQ(r.names, (std::vector<std::string>{"col1", "col2", "col3"}));
 }
 
+// Found by fuzzing: an empty group `()` in the first row left a probe without a column.
+TEST(RowParser, ProbeRowWithAnEmptyGroupIsNotTakenForTheProbeLayout) {
+  RowParser parser;
+  parser.set_field_name("U");
+  Collected c;
+  parser.Feed("# Probe 0 (0 0 0)\n# Probe 1 (0 1 0)\n#  Probe 0 1\n#  Time\n0.1 () 2.5\n", c);
+  EXPECT_EQ(c.names, (std::vector<std::string>{"col1", "col2"}));
+  EXPECT_TRUE(parser.probes().empty());
+}
+
 TEST(RowParser, ProbesWithoutLocationsCompareEqualAndAMovedProbeDoesNot) {
   RowParser a, b, moved;
   Collected ca, cb, cm;
