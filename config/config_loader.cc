@@ -193,6 +193,13 @@ void Loader::LoadSettings(const YAML::Node& root, RunConfig& c) {
   }
   c.planned_end_time = std::numeric_limits<double>::quiet_NaN();
   c.cores = std::numeric_limits<double>::quiet_NaN();
+  c.flow_through_time = std::numeric_limits<double>::quiet_NaN();
+  if (root["flow_through_time"]) {
+    if (auto v = Number(root["flow_through_time"], "flow_through_time", 0.0, 1e300, true,
+                        "the simulated time of one flow-through, above 0")) {
+      c.flow_through_time = *v;
+    }
+  }
   if (root["planned_end_time"]) {
     if (auto v = Number(root["planned_end_time"], "planned_end_time", -1e300, 1e300, false,
                         "the simulated time the run was planned to reach")) {
@@ -222,7 +229,7 @@ std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
     Error(node, "a source must be a map with name and files");
     return std::nullopt;
   }
-  CheckKeys(node, {"name", "files", "time_column", "columns", "scale"}, "a source");
+  CheckKeys(node, {"name", "files", "time_column", "columns", "scale", "weighting"}, "a source");
   SourceConfig s;
   bool ok = true;
   if (!node["name"]) {
@@ -245,6 +252,16 @@ std::optional<SourceConfig> Loader::LoadSource(const YAML::Node& node) {
     if (auto t = Text(node["time_column"], "time_column")) s.time_column = *t;
   }
   if (node["columns"]) s.columns = TextList(node["columns"], "columns");
+  if (node["weighting"]) {
+    const std::optional<std::string> w = Text(node["weighting"], "weighting");
+    const std::optional<Weighting> weighting = w ? ParseWeighting(*w) : std::nullopt;
+    if (weighting) {
+      s.weighting = *weighting;
+    } else {
+      if (w) Error(node["weighting"], "weighting must be auto, time or samples, not '" + *w + "'");
+      ok = false;
+    }
+  }
   if (const YAML::Node scale = node["scale"]) {
     if (!scale.IsMap()) {
       Error(scale, "scale must map columns to factors, such as {\"tau.x\": -1}");
@@ -888,7 +905,8 @@ std::optional<RunConfig> Loader::Load(const YAML::Node& root) {
   CheckKeys(root,
             {"run", "store", "evaluate_every", "poll_every", "confidence", "batches", "warmup",
              "confirmations", "minimum_effective_samples", "drift_p_value", "blocks",
-             "planned_end_time", "cores", "socket", "metrics", "alerts", "sources",
+             "planned_end_time", "cores", "flow_through_time", "socket", "metrics", "alerts",
+             "sources",
              "statistics", "groups", "wall_units", "profiles"},
             "the run settings");
   LoadSettings(root, c);

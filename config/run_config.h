@@ -21,6 +21,8 @@ struct SourceConfig {
   std::vector<std::string> columns;  // names to use instead of the files' header; empty: header
   // Factors applied to columns before any statistic (a sign convention, a density).
   std::vector<SourceStatistics::ColumnScale> scales;
+  // Each sample counts once, or for the simulated time it stands for (SampleSpacing).
+  Weighting weighting = Weighting::kAuto;
 };
 
 struct StatisticConfig {
@@ -129,6 +131,8 @@ struct RunConfig {
   AlertsConfig alerts;
   double planned_end_time = 0.0;  // simulated time the run was planned to reach; NaN: not given
   double cores = 0.0;             // cores the solver job holds; NaN: not given
+  // Simulated time of one flow-through (domain length over bulk velocity); NaN: not given.
+  double flow_through_time = 0.0;
   std::string socket_path;        // the query socket, absolute (default beside the store)
   std::string metrics_listen;     // "HOST:PORT" of the metrics endpoint; empty: none
 };

@@ -22,16 +22,23 @@ BlockHistory::BlockHistory(MomentLayout layout, std::size_t capacity)
   layout_.Clear(OpenSlot());
 }
 
-void BlockHistory::Add(double time, const double* values) {
-  // The open block is filled in place in the slot after the closed ones: closing it is a count.
-  double* open = OpenSlot();
-  layout_.AddSample(open, time, values);
+void BlockHistory::Add(double time, const double* values, double weight) {
   ++sample_count_;
   last_time_ = time;
-  if (layout_.Count(open) < static_cast<double>(block_length_)) return;
-  ++block_count_;
-  if (block_count_ == capacity_) MergeNeighbourPairs();
-  layout_.Clear(OpenSlot());
+  // The open block is filled in place in the slot after the closed ones: closing it is a count.
+  // With weight 1 every block fills with whole samples, as an unweighted history does.
+  double left = weight;
+  while (left > 0.0) {
+    double* open = OpenSlot();
+    const double room = static_cast<double>(block_length_) - layout_.Count(open);
+    const double part = std::min(left, room);
+    layout_.AddSample(open, time, values, part);
+    if (part < room) return;
+    left -= part;
+    ++block_count_;
+    if (block_count_ == capacity_) MergeNeighbourPairs();
+    layout_.Clear(OpenSlot());
+  }
 }
 
 void BlockHistory::MergeNeighbourPairs() {

@@ -21,17 +21,22 @@ class BlockHistory {
   BlockHistory(MomentLayout layout, std::size_t capacity = kDefaultCapacity);
 
   // Adds one sample (`values` holds the layout's d signals). Times must increase; the caller gates
-  // restart overlap before this point.
-  void Add(double time, const double* values);
+  // restart overlap before this point. `weight` is what the sample counts for, in units of one
+  // sample of an evenly spaced series (under time weighting: its simulated time over the source's
+  // cell duration, SampleSpacing). A block closes when its weight reaches block_length(): a sample
+  // that does not fit is split, its remainder opening the next block (the value holds over the
+  // time it stands for), so closed blocks hold equal weight, that is equal simulated time.
+  void Add(double time, const double* values, double weight = 1.0);
 
   const MomentLayout& layout() const { return layout_; }
   std::size_t capacity() const { return capacity_; }
-  // Closed blocks, oldest first; each holds exactly block_length() samples.
+  // Closed blocks, oldest first; each holds a weight of block_length() (samples, or cells).
   std::size_t block_count() const { return block_count_; }
   std::uint64_t block_length() const { return block_length_; }
   const double* block(std::size_t i) const { return blocks_.data() + i * layout_.stride(); }
-  // The block being filled: fewer than block_length() samples, possibly none.
+  // The block being filled: less than block_length() of weight, possibly none.
   const double* open_block() const { return block(block_count_); }
+  // Samples added, whatever their weight.
   std::uint64_t sample_count() const { return sample_count_; }
   double last_time() const { return last_time_; }
 

@@ -99,7 +99,8 @@ void MomentLayout::MergeOrderTwoSingle(const double* a, const double* b, double*
   out[4] = sum_sq;
 }
 
-void MomentLayout::AddSampleGeneral(double* summary, double time, const double* values) const {
+void MomentLayout::AddSampleGeneral(double* summary, double time, const double* values,
+                                    double weight) const {
   double* means = summary + 1;
   double* sums = summary + 1 + signals_;
   const double count = sums[0];
@@ -107,7 +108,7 @@ void MomentLayout::AddSampleGeneral(double* summary, double time, const double* 
   double new_mean[kMaxSignals] = {};
   double delta[kMaxSignals] = {};
   for (int i = 0; i < signals_; ++i) {
-    new_mean[i] = means[i] + (values[i] - means[i]) / (count + 1.0);
+    new_mean[i] = means[i] + (values[i] - means[i]) * weight / (count + weight);
     delta[i] = means[i] - new_mean[i];
   }
   ShiftSums(sums, delta);
@@ -121,7 +122,7 @@ void MomentLayout::AddSampleGeneral(double* summary, double time, const double* 
   for (std::size_t p = 0; p < powers_.size(); ++p) {
     double term = 1.0;
     for (int i = 0; i < signals_; ++i) term *= deviation[i][powers_[p][i]];
-    sums[p] += term;
+    sums[p] += weight * term;
   }
   for (int i = 0; i < signals_; ++i) {
     means[i] = new_mean[i];

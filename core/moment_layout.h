@@ -36,20 +36,25 @@ class MomentLayout {
 
   // Sets a summary to the empty state (count 0).
   void Clear(double* summary) const;
-  // Adds one sample of all d signals at `time`. Values must be finite (the parser guarantees it).
-  // The one-signal order-two case (every mean statistic) is Welford's update (Welford 1962),
-  // inline because it runs once per value of every probe file.
-  void AddSample(double* summary, double time, const double* values) const {
+  // Adds one sample of all d signals at `time` with `weight` (> 0; 1 for a sample that counts
+  // once, the simulated time it stands for under time weighting): the count becomes the sum of
+  // weights and every mean and central sum the weighted one, so summaries of weighted samples merge
+  // by the same formulas (Pébay 2008 holds for real weights). Values must be finite (the parser
+  // guarantees it). The one-signal order-two case (every mean statistic) is Welford's update
+  // (Welford 1962; weighted form West 1979, "Updating mean and variance estimates: an improved
+  // method", CACM 22(9)), inline because it runs once per value of every probe file. With weight 1
+  // every operation rounds as the unweighted update did.
+  void AddSample(double* summary, double time, const double* values, double weight = 1.0) const {
     if (signals_ == 1 && max_order_ == 2) {
       double& count = summary[2];
       if (count == 0.0) summary[0] = time;
-      count += 1.0;
+      count += weight;
       const double delta = values[0] - summary[1];
-      summary[1] += delta / count;
-      summary[4] += delta * (values[0] - summary[1]);
+      summary[1] += delta * weight / count;
+      summary[4] += weight * delta * (values[0] - summary[1]);
       return;
     }
-    AddSampleGeneral(summary, time, values);
+    AddSampleGeneral(summary, time, values, weight);
   }
   // out = a merged with b, where b's samples follow a's. `out` may alias `a` or `b`.
   void Merge(const double* a, const double* b, double* out) const;
@@ -75,7 +80,7 @@ class MomentLayout {
   int SumIndex(const Powers& alpha) const;
   // Rewrites the sums `sums` (about the current mean) as sums about mean - delta.
   void ShiftSums(double* sums, const double* delta) const;
-  void AddSampleGeneral(double* summary, double time, const double* values) const;
+  void AddSampleGeneral(double* summary, double time, const double* values, double weight) const;
   void MergeOrderTwoSingle(const double* a, const double* b, double* out) const;
 
   int signals_;

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <charconv>
+#include <limits>
 #include <map>
 
 namespace plateau {
@@ -141,17 +142,78 @@ bool SourceStatistics::SetScales(const std::vector<ColumnScale>& scales, std::st
   return true;
 }
 
+bool SourceStatistics::SetWeighting(Weighting weighting) {
+  if (gate_.last_time() != -std::numeric_limits<double>::infinity()) return false;
+  spacing_ = SampleSpacing(weighting);
+  return true;
+}
+
 bool SourceStatistics::Add(const double* row) {
+  if (!gate_.Admit(TimeOf(row))) return false;
+  if (spacing_.decided()) {
+    FeedRow(row);
+    return true;
+  }
+  held_.insert(held_.end(), row, row + columns_.size());
+  if (held_rows() > SampleSpacing::kDecisionSpacings) SettleWeighting();
+  return true;
+}
+
+void SourceStatistics::SettleWeighting() {
+  if (spacing_.decided()) return;
+  std::vector<double> times;
+  const std::size_t width = columns_.size();
+  for (std::size_t at = 0; at < held_.size(); at += width) times.push_back(TimeOf(&held_[at]));
+  spacing_.Decide(times);
+  for (std::size_t at = 0; at < held_.size(); at += width) FeedRow(&held_[at]);
+  held_.clear();
+  held_.shrink_to_fit();
+}
+
+void SourceStatistics::FeedRow(const double* row) {
   // Multiplying by an unset factor of exactly 1 leaves every value as it was.
-  const double time = row[time_index_] * scales_[time_index_];
-  if (!gate_.Admit(time)) return false;
+  const double time = TimeOf(row);
+  const double weight = spacing_.Next(time);
   double values[MomentLayout::kMaxSignals];
   for (Feed& f : feeds_) {
     for (std::size_t i = 0; i < f.columns.size(); ++i) {
       values[i] = row[f.columns[i]] * scales_[f.columns[i]];
     }
-    f.history->Add(time, values);
+    f.history->Add(time, values, weight);
   }
+}
+
+void SourceStatistics::AddTimeScales(StatisticEstimate& e) const {
+  if (!spacing_.decided()) {
+    if (e.state == EstimateState::kNoData && held_rows() > 0) {
+      e.state_reason = std::to_string(held_rows()) + " rows held until the weighting is chosen (" +
+                       std::to_string(SampleSpacing::kDecisionSpacings + 1) + " rows)";
+    }
+    return;
+  }
+  e.time_weighted = spacing_.time_weighted();
+  e.unit_time = spacing_.unit_time();
+  e.integral_time_scale = e.integrated_time * e.unit_time;
+  e.averaging_time = static_cast<double>(e.samples_used) * e.unit_time;
+}
+
+std::vector<double> SourceStatistics::SaveWeightingState() const {
+  std::vector<double> state = spacing_.SaveState();
+  state.insert(state.begin(), static_cast<double>(state.size()));
+  state.insert(state.end(), held_.begin(), held_.end());
+  return state;
+}
+
+bool SourceStatistics::RestoreWeightingState(const std::vector<double>& state) {
+  if (state.empty()) return false;
+  const auto size = static_cast<std::size_t>(state[0]);
+  if (state.size() < 1 + size || (state.size() - 1 - size) % columns_.size() != 0) return false;
+  SampleSpacing spacing(spacing_.requested());
+  if (!spacing.RestoreState(std::vector<double>(state.begin() + 1, state.begin() + 1 + size))) {
+    return false;
+  }
+  spacing_ = std::move(spacing);
+  held_.assign(state.begin() + 1 + static_cast<std::ptrdiff_t>(size), state.end());
   return true;
 }
 

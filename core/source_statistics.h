@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "core/sample_spacing.h"
 #include "core/statistic.h"
 #include "core/statistic_request.h"
 #include "core/time_order_gate.h"
@@ -47,9 +48,27 @@ class SourceStatistics {
   };
   bool SetScales(const std::vector<ColumnScale>& scales, std::string* error);
 
+  // How samples are weighted (SampleSpacing); before the first row only, else false.
+  bool SetWeighting(Weighting weighting);
+
   // Adds one row of every column. Returns false when its time is not after the last admitted time
-  // (restart overlap): the row is then counted in gate() and used by no statistic.
+  // (restart overlap): the row is then counted in gate() and used by no statistic. Until the
+  // weighting is chosen (the first SampleSpacing::kDecisionSpacings spacings) admitted rows are held
+  // back, and the statistics see them once it is.
   bool Add(const double* row);
+  // Chooses the weighting from the rows held back so far and feeds them: at the end of a file that
+  // `analyze` reads, which may hold fewer rows than the choice waits for.
+  void SettleWeighting();
+  const SampleSpacing& spacing() const { return spacing_; }
+  // Rows admitted but held back until the weighting is chosen.
+  std::size_t held_rows() const { return held_.size() / columns_.size(); }
+  // Fills the estimate's simulated-time scales from the spacing (StatisticEstimate::unit_time).
+  void AddTimeScales(StatisticEstimate& e) const;
+
+  // The spacing's state and the rows held back, for checkpoints; Restore returns false and changes
+  // nothing when the state does not fit this source.
+  std::vector<double> SaveWeightingState() const;
+  bool RestoreWeightingState(const std::vector<double>& state);
 
   // Every history with a stable key, for checkpoints: "statistic:NAME" for a statistic's own,
   // "shared:KEY" for a shared one.
@@ -81,6 +100,9 @@ class SourceStatistics {
   // a shared history's columns are unknown or more than three.
   Feed* FeedFor(const std::string& key, const std::vector<int>& columns, int order,
                 std::size_t capacity, std::string* error);
+  double TimeOf(const double* row) const { return row[time_index_] * scales_[time_index_]; }
+  // Gives an admitted row to every history, with the weight the spacing gives it.
+  void FeedRow(const double* row);
 
   std::vector<std::string> columns_;
   int time_index_;
@@ -91,6 +113,8 @@ class SourceStatistics {
   std::vector<Problem> problems_;
   std::vector<Feed> feeds_;
   std::vector<double> scales_;  // one factor per column, 1 unless set
+  SampleSpacing spacing_;
+  std::vector<double> held_;  // admitted rows, row after row, until the weighting is chosen
 };
 
 // Position of `column` (a name, else a 1-based number) in `columns`; -1 when neither matches.

@@ -51,6 +51,15 @@ struct StatisticEstimate {
   double lag_window = kNaN;          // samples spanned by the Parzen window
   double oscillation_period = 0.0;   // samples; 0 when not oscillating
 
+  // Simulated time (the time column's units), filled by SourceStatistics::AddTimeScales: what one
+  // unit of samples_used stands for (the mean spacing under sample weighting, the cell under time
+  // weighting), the integral time scale integrated_time * unit_time, and the averaging time after
+  // the warm-up cut samples_used * unit_time.
+  bool time_weighted = false;
+  double unit_time = kNaN;
+  double integral_time_scale = kNaN;
+  double averaging_time = kNaN;
+
   double confidence = kNaN;
   double quantile = kNaN;
   double std_error = kNaN;           // of the deciding estimator

@@ -121,8 +121,39 @@ std::string FormatUtcTime(double wall) {
   return buffer;
 }
 
+void WriteSpacing(JsonWriter& json, const SampleSpacing& spacing) {
+  json.Key("weighting");
+  json.BeginObject();
+  json.Field("requested", WeightingName(spacing.requested()));
+  json.Field("decided", spacing.decided());
+  json.Field("time_weighted", spacing.time_weighted());
+  json.Field("unit_time", spacing.unit_time());
+  json.Key("spacing");
+  json.BeginObject();
+  json.Field("min", spacing.min_spacing());
+  json.Field("median", spacing.median_spacing());
+  json.Field("max", spacing.max_spacing());
+  json.Field("varies", spacing.varies());
+  json.EndObject();
+  json.Key("gaps");
+  json.BeginObject();
+  json.Field("count", spacing.gap_count());
+  json.Key("last");
+  json.BeginArray();
+  for (const SampleSpacing::Gap& g : spacing.gaps()) {
+    json.BeginObject();
+    json.Field("from", g.from);
+    json.Field("to", g.to);
+    json.EndObject();
+  }
+  json.EndArray();
+  json.EndObject();
+  json.Field("description", spacing.Describe());
+  json.EndObject();
+}
+
 void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
-                         const std::vector<std::string>& columns) {
+                         const std::vector<std::string>& columns, double flow_through_time) {
   json.Field("name", e.name);
   json.Field("kind", KindName(e.kind));
   json.Key("columns");
@@ -152,6 +183,14 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
   json.Field("sokal", e.integrated_time_sokal);
   json.EndObject();
   json.Field("effective_samples", e.effective_samples);
+  json.Field("time_weighted", e.time_weighted);
+  json.Field("unit_time", e.unit_time);
+  json.Field("integral_time_scale", e.integral_time_scale);
+  json.Field("averaging_time", e.averaging_time);
+  if (std::isfinite(flow_through_time)) {
+    json.Field("integral_time_flow_throughs", e.integral_time_scale / flow_through_time);
+    json.Field("averaging_flow_throughs", e.averaging_time / flow_through_time);
+  }
   json.Field("confidence", e.confidence);
   json.Field("half_width", e.half_width);
   json.Field("relative_half_width", e.relative_half_width);
@@ -218,7 +257,8 @@ std::string SourceSection(const SourceAnalysis& source, const EvaluationOptions&
   for (const FileSummary& f : source.files) out += FileLine(f) + "\n";
   out += FormatPercent(options.confidence) + " confidence, warm-up " +
          WarmupDescription(options) + ", " + std::to_string(options.batches) +
-         " batches, time column '" + source.time_column + "'\n\n";
+         " batches, time column '" + source.time_column + "'\n" +
+         "samples " + source.spacing.Describe() + "\n\n";
   using A = TextTable::Align;
   TextTable table({{"statistic", A::kLeft},
                    {"value", A::kRight},
@@ -297,6 +337,7 @@ std::string FormatAnalysisJson(const AnalysisResult& result) {
     json.Field("name", source.name);
     json.Field("series", source.series);
     json.Field("time_column", source.time_column);
+    WriteSpacing(json, source.spacing);
     json.Key("columns");
     json.BeginArray();
     for (const std::string& c : source.columns) json.String(c);

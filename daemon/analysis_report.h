@@ -19,8 +19,14 @@ std::string FormatAnalysisJson(const AnalysisResult& result);
 // columns, estimate_state, samples_total, samples_used, warmup_end_time, mean, std_error{...},
 // integrated_time, effective_samples, confidence, half_width, relative_half_width, decided_by,
 // drift{...}, warnings and the diagnostics beside them. Undefined numbers are null.
+// The simulated-time scales (time_weighted, unit_time, integral_time_scale, averaging_time) and,
+// when flow_through_time is a number, the same two in flow-throughs.
 void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
-                         const std::vector<std::string>& columns);
+                         const std::vector<std::string>& columns,
+                         double flow_through_time = StatisticEstimate::kNaN);
+// A source's weighting and the spread of its time spacing: weighting, requested, time_weighted,
+// spacing{min, median, max}, gaps{count, last[{from, to}]}, description.
+void WriteSpacing(JsonWriter& json, const SampleSpacing& spacing);
 
 // Short human forms used in tables: 6 significant digits for values, 2 for half-widths.
 std::string FormatValue(double value);

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "core/evaluation_options.h"
+#include "core/sample_spacing.h"
 #include "core/statistic_estimate.h"
 #include "daemon/series_catalog.h"
 
@@ -35,6 +36,7 @@ struct SourceAnalysis {
   std::vector<StatisticEstimate> estimates;
   std::vector<std::vector<std::string>> statistic_columns;  // per estimate
   std::vector<std::string> notes;  // restart overlaps and the like, one sentence each
+  SampleSpacing spacing;           // the weighting and the spread of the time spacing
 };
 
 struct AnalysisResult {

@@ -30,6 +30,7 @@ struct AnalyzeOptions {
   std::vector<std::string> third_moments;
   std::vector<std::string> tkes;
   std::vector<SourceStatistics::ColumnScale> scales;
+  Weighting weighting = Weighting::kAuto;
   EvaluationOptions evaluation;
   std::size_t capacity = BlockHistory::kDefaultCapacity;
   bool json = false;
@@ -79,7 +80,7 @@ std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
     } else if (a == "--time" || a == "--means" || a == "--variance" || a == "--rms" ||
                a == "--covariance" || a == "--third-moment" || a == "--tke" ||
                a == "--confidence" || a == "--batches" || a == "--warmup" || a == "--blocks" ||
-               a == "--scale") {
+               a == "--scale" || a == "--weighting") {
       const auto v = value();
       if (!v) return std::nullopt;
       if (a == "--time") o.time_column = *v;
@@ -99,6 +100,14 @@ std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
           return std::nullopt;
         }
         o.scales.push_back({v->substr(0, equals), *factor});
+      }
+      if (a == "--weighting") {
+        const std::optional<Weighting> w = ParseWeighting(*v);
+        if (!w) {
+          *error = "--weighting takes auto, time or samples; got '" + *v + "'";
+          return std::nullopt;
+        }
+        o.weighting = *w;
       }
       if (a == "--confidence") {
         const auto c = ParseDouble(*v);
@@ -223,6 +232,7 @@ class AnalyzeSink : public RowSink {
     if (source_ && !source_->problems().empty()) {
       error = source_->problems().front().message;
     } else if (source_) {
+      source_->SetWeighting(options_.weighting);
       source_->SetScales(options_.scales, &error);  // leaves `error` empty when every column is known
     }
     if (!source_ || !error.empty()) error_ = summary_.path + ": " + error;
@@ -296,6 +306,9 @@ options:
   --blocks N            blocks kept per statistic (default 4096; memory per statistic)
   --scale COL=F         multiply column COL by F before any statistic, e.g. a solver's sign
                         convention tau.x=-1 or a density (repeatable)
+  --weighting W         auto (default): each sample weighs the simulated time it stands for
+                        when the first spacings vary by more than 1 %, else counts once;
+                        time or samples to choose
   --json                one JSON object instead of the table
 
 exit status: 0 analysed, 2 bad usage or unusable input.
@@ -376,16 +389,19 @@ int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, s
       analysis.files.push_back(std::move(summary));
     }
     if (!source) continue;  // the file lost its rows since it was catalogued
+    source->SettleWeighting();  // a short series: fewer rows than the choice waits for
     if (source->gate().current_overlap().samples > 0) {
       const TimeOrderGate::Overlap& o = source->gate().current_overlap();
       analysis.notes.push_back("restart overlap: the last " + std::to_string(o.samples) +
                                " rows (times " + FormatValue(o.first_time) + " to " +
                                FormatValue(o.last_time) + ") were not after earlier rows; skipped");
     }
+    analysis.spacing = source->spacing();
     analysis.columns = source->columns();
     analysis.time_column = source->columns()[source->time_index()];
     for (const Statistic& statistic : source->statistics()) {
       analysis.estimates.push_back(statistic.Evaluate(options.evaluation));
+      source->AddTimeScales(analysis.estimates.back());
     }
     analysis.statistic_columns = source->statistic_columns();
     result.sources.push_back(std::move(analysis));

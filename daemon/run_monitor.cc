@@ -35,13 +35,16 @@ void WriteTimeToTarget(JsonWriter& json, double remaining, double wall_seconds,
 // The status object of one statistic: the keys of `plateau analyze --json`, plus the stop rule's.
 std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
                           const ConvergenceTracker& tracker, const SnapshotRow& row,
-                          const std::optional<ReferenceComparison>& reference, double wall_time) {
+                          const std::optional<ReferenceComparison>& reference,
+                          const SourceStatistics* source, double flow_through_time,
+                          double wall_time) {
   const std::string& state = row.state;
   const std::string& reason = row.state_reason;
   JsonWriter json;
   json.BeginObject();
-  WriteEstimateFields(json, e, c.request.columns);
+  WriteEstimateFields(json, e, c.request.columns, flow_through_time);
   json.Field("source", c.source);
+  if (source != nullptr) WriteSpacing(json, source->spacing());
   json.Field("state", state);
   json.Field("state_reason", reason);
   json.Key("target");
@@ -369,6 +372,7 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   StatisticEstimate e;
   if (statistic != nullptr) {
     e = statistic->Evaluate(options);
+    t.tail->source()->AddTimeScales(e);
   } else {
     e.name = c.request.name;
     e.kind = c.request.kind;
@@ -426,7 +430,8 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   const std::optional<ReferenceComparison> reference = Reference(c, e, options);
   if (reference) row.reference_verdict = std::string(VerdictName(reference->verdict));
   row.profile = c.profile;
-  row.json = StatisticJson(e, c, t.tracker, row, reference, wall_time);
+  row.json = StatisticJson(e, c, t.tracker, row, reference, t.tail->source(),
+                           config_.flow_through_time, wall_time);
   *estimate = std::move(e);
   return row;
 }

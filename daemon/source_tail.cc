@@ -159,6 +159,7 @@ void SourceTail::StartSource(const std::vector<std::string>& columns,
     return;
   }
   layout_file_ = from_file;
+  source_->SetWeighting(config_.weighting);
   if (!source_->SetScales(config_.scales, &error)) {
     log_->error("source '{}' ({}): {}; the columns are {}; no factor is applied until the config "
                 "is fixed",
@@ -352,6 +353,7 @@ void SourceTail::Checkpoint(CycleRecord& record) {
   if (!source_) return;
   record.checkpoint["gate:" + config_.name] = {source_->gate().last_time(),
                                                static_cast<double>(source_->gate().skipped())};
+  record.checkpoint["weighting:" + config_.name] = source_->SaveWeightingState();
   for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
     record.checkpoint["history:" + config_.name + "/" + h.key] = h.history->SaveState();
   }
@@ -380,6 +382,13 @@ void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
   if (gate != checkpoint.items.end() && gate->second.size() == 2) {
     source_->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
     overlap_reported_ = source_->gate().skipped();
+  }
+  const auto weighting = checkpoint.items.find("weighting:" + config_.name);
+  if (weighting == checkpoint.items.end() ||
+      !source_->RestoreWeightingState(weighting->second)) {
+    log_->warn("source '{}': no usable weighting state in the checkpoint (saved by an older "
+               "plateau, or the weighting changed); it is chosen again from the next rows",
+               config_.name);
   }
   for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
     const auto state = checkpoint.items.find("history:" + config_.name + "/" + h.key);

@@ -43,6 +43,8 @@ class SourceTail {
   // Why a requested statistic has no estimate (an unknown column); empty when it has one.
   std::string ProblemOf(const std::string& statistic_name) const;
   const Statistic* Find(const std::string& statistic_name) const;
+  // The source's weighting and time spacing; nullptr until its first file gave its columns.
+  const SourceStatistics* source() const { return source_ ? &*source_ : nullptr; }
   double last_sample_time() const;
   double last_sample_wall_time() const { return last_sample_wall_time_; }
   // The system clock jumped by `seconds`: wall times held here move with it, so that durations

@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstdio>
 #include <limits>
+#include <set>
 
 #include "daemon/analysis_report.h"
 #include "daemon/json_writer.h"
@@ -77,6 +78,30 @@ std::string TextOr(const JsonValue* v) {
   return v != nullptr && v->type() == JsonValue::Type::kString ? v->string() : "";
 }
 
+// One line per source whose samples are not simply evenly spaced and counted once: weighted by
+// time, spaced unevenly, or with gaps. Read from each statistic's weighting object.
+std::string WeightingLines(const LatestView& v) {
+  std::set<std::string> seen;
+  std::string out;
+  for (const SnapshotRow& s : v.statistics) {
+    std::string error;
+    const std::optional<JsonValue> d = JsonValue::Parse(s.json, &error);
+    if (!d || !d->is_object()) continue;
+    const JsonValue* weighting = d->Find("weighting");
+    const std::string source = TextOr(d->Find("source"));
+    if (weighting == nullptr || !weighting->is_object() || !seen.insert(source).second) continue;
+    const JsonValue* spacing = weighting->Find("spacing");
+    const JsonValue* gaps = weighting->Find("gaps");
+    const JsonValue* timed = weighting->Find("time_weighted");
+    const bool notable = (timed != nullptr && timed->boolean()) ||
+                         (spacing != nullptr && spacing->Find("varies") != nullptr &&
+                          spacing->Find("varies")->boolean()) ||
+                         (gaps != nullptr && NumberOr(gaps->Find("count")) > 0);
+    if (notable) out += "source " + source + ": samples " + TextOr(weighting->Find("description")) + "\n";
+  }
+  return out;
+}
+
 }  // namespace
 
 std::string StatusTable(const LatestView& v, const StatusContext& c) {
@@ -117,6 +142,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                                                   : s.reference_verdict});
   }
   out += table.Render() + "\n";
+  out += WeightingLines(v);
   for (const SnapshotRow& s : v.statistics) {
     if (IsGroup(s)) out += "group " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
   }
