@@ -25,16 +25,21 @@ BlockHistory::BlockHistory(MomentLayout layout, std::size_t capacity)
 void BlockHistory::Add(double time, const double* values, double weight) {
   ++sample_count_;
   last_time_ = time;
+  // Weights are steps over a cell computed from printed times, so an evenly spaced run gives
+  // weights of 1 give or take ~1e-11: a block short of full by less than this share of its weight
+  // is full, and a remainder that small is dropped, so that such a run closes its blocks where an
+  // unweighted history does. Never more than 1e-3 of a sample, so weights of 1 are untouched.
+  const double rounding = std::min(1e-9 * static_cast<double>(block_length_), 1e-3);
   // The open block is filled in place in the slot after the closed ones: closing it is a count.
-  // With weight 1 every block fills with whole samples, as an unweighted history does.
   double left = weight;
   while (left > 0.0) {
     double* open = OpenSlot();
     const double room = static_cast<double>(block_length_) - layout_.Count(open);
     const double part = std::min(left, room);
     layout_.AddSample(open, time, values, part);
-    if (part < room) return;
     left -= part;
+    if (room - part > rounding) return;  // the sample fitted and the block is not full
+    if (left <= rounding) left = 0.0;
     ++block_count_;
     if (block_count_ == capacity_) MergeNeighbourPairs();
     layout_.Clear(OpenSlot());

@@ -25,7 +25,8 @@ class BlockHistory {
   // sample of an evenly spaced series (under time weighting: its simulated time over the source's
   // cell duration, SampleSpacing). A block closes when its weight reaches block_length(): a sample
   // that does not fit is split, its remainder opening the next block (the value holds over the
-  // time it stands for), so closed blocks hold equal weight, that is equal simulated time.
+  // time it stands for), so closed blocks hold equal weight, that is equal simulated time (to a
+  // share of 1e-9 that is taken as rounding of the printed times).
   void Add(double time, const double* values, double weight = 1.0);
 
   const MomentLayout& layout() const { return layout_; }

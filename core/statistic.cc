@@ -239,7 +239,8 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
   const int cut = WarmupBlocks(options);
   if (options.warmup == WarmupPolicy::kAuto) e.warmup_batch_length = MserGroup() * e.block_length;
   const std::vector<double> global = PostWarmupSummary(cut);
-  e.samples_used = static_cast<std::uint64_t>(layout.Count(global.data()));
+  // A whole number of samples, or under time weighting the weight in cells (rounded).
+  e.samples_used = static_cast<std::uint64_t>(std::llround(layout.Count(global.data())));
   e.warmup_end_time = layout.FirstTime(global.data());
   e.value = formula_.Value(layout, global.data());
   e.blocks_used = static_cast<int>(history_->block_count()) - cut;
