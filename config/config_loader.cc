@@ -428,7 +428,10 @@ std::optional<StatisticConfig> Loader::LoadStatistic(const YAML::Node& node, con
   } else if (c.sources.size() == 1) {
     s.source = c.sources.front().name;
   } else {
-    Error(node, "statistic '" + s.request.name + "' needs a source (there are several)");
+    // With no source loaded, the sources' own errors say what is wrong, not this one.
+    if (!c.sources.empty()) {
+      Error(node, "statistic '" + s.request.name + "' needs a source (there are several)");
+    }
     ok = false;
   }
   if (!s.source.empty() &&

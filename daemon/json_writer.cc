@@ -109,6 +109,36 @@ void JsonWriter::Raw(std::string_view json) {
   text_ += json;
 }
 
+void JsonWriter::Value(const JsonValue& value) {
+  switch (value.type()) {
+    case JsonValue::Type::kNull:
+      Null();
+      return;
+    case JsonValue::Type::kBool:
+      Bool(value.boolean());
+      return;
+    case JsonValue::Type::kNumber:
+      Number(value.number());
+      return;
+    case JsonValue::Type::kString:
+      String(value.string());
+      return;
+    case JsonValue::Type::kArray:
+      BeginArray();
+      for (const JsonValue& item : value.array()) Value(item);
+      EndArray();
+      return;
+    case JsonValue::Type::kObject:
+      BeginObject();
+      for (const auto& [key, member] : value.members()) {
+        Key(key);
+        Value(member);
+      }
+      EndObject();
+      return;
+  }
+}
+
 void JsonWriter::Null() {
   BeforeValue();
   text_ += "null";

@@ -9,6 +9,8 @@
 #include <string_view>
 #include <vector>
 
+#include "daemon/json_value.h"
+
 namespace plateau {
 
 class JsonWriter {
@@ -26,6 +28,8 @@ class JsonWriter {
   void Null();
   // A value that is already a JSON document (e.g. an object read back from the store).
   void Raw(std::string_view json);
+  // A parsed document written back, members in their order.
+  void Value(const JsonValue& value);
 
   // Shorthands for a key and its value.
   void Field(std::string_view key, std::string_view value);

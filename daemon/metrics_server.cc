@@ -163,6 +163,12 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   per_statistic("plateau_statistic_integrated_time_samples",
                 "Integrated autocorrelation time, in samples.",
                 [](const SnapshotRow& s) { return s.integrated_time; });
+  per_statistic("plateau_statistic_integral_time_scale",
+                "Integral time scale, in the time column's units (simulated time).",
+                [](const SnapshotRow& s) { return s.integral_time_scale; });
+  per_statistic("plateau_statistic_averaging_time",
+                "Simulated time averaged after the warm-up cut.",
+                [](const SnapshotRow& s) { return s.averaging_time; });
   per_statistic("plateau_statistic_effective_samples", "Effective sample size.",
                 [](const SnapshotRow& s) { return s.effective_samples; });
   per_statistic("plateau_statistic_met", "1 when the statistic meets its target, else 0.",

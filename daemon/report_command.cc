@@ -127,8 +127,13 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonValue* json,
       SvgPlot correlation("autocorrelation (of the block series)", "lag [samples]", "rho");
       correlation.Line(lags, rho, "value", "");
       correlation.HorizontalLine(0.0, "grid", "");
-      char label[64];
-      std::snprintf(label, sizeof label, "tau = %.3g samples", tau);
+      char label[128];
+      const double scale = NumberOf(json->Find("integral_time_scale"));
+      if (std::isfinite(scale)) {
+        std::snprintf(label, sizeof label, "tau = %.3g samples, T_int = %.3g in time", tau, scale);
+      } else {
+        std::snprintf(label, sizeof label, "tau = %.3g samples", tau);
+      }
       correlation.VerticalLine(tau, "tau", label);
       html += correlation.Render();
     }
@@ -283,7 +288,7 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
     std::ofstream csv(csv_path);
     csv << "cycle,wall_time,statistic,profile,state,value,half_width,relative_half_width,"
            "integrated_time,effective_samples,warmup_end_time,samples_used,last_time,confidence,"
-           "target_half_width,remaining_time\n";
+           "target_half_width,remaining_time,integral_time_scale,averaging_time\n";
     for (const HistoryRow& h : history) {
       const SnapshotRow& s = h.snapshot;
       csv << h.cycle << "," << CsvNumber(h.wall_time) << "," << CsvField(s.statistic) << ","
@@ -292,7 +297,8 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
           << CsvNumber(s.integrated_time) << "," << CsvNumber(s.effective_samples) << ","
           << CsvNumber(s.warmup_end_time) << "," << s.samples_used << "," << CsvNumber(s.last_time)
           << "," << CsvNumber(s.confidence) << "," << CsvNumber(s.target_half_width) << ","
-          << CsvNumber(s.remaining_time) << "\n";
+          << CsvNumber(s.remaining_time) << "," << CsvNumber(s.integral_time_scale) << ","
+          << CsvNumber(s.averaging_time) << "\n";
     }
     if (!csv) {
       err << "plateau report: cannot write " << csv_path << "\n";

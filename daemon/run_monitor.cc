@@ -419,6 +419,8 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   row.relative_half_width = e.relative_half_width;
   row.integrated_time = e.integrated_time;
   row.effective_samples = e.effective_samples;
+  row.integral_time_scale = e.integral_time_scale;
+  row.averaging_time = e.averaging_time;
   row.warmup_end_time = e.warmup_end_time;
   row.samples_used = static_cast<std::int64_t>(e.samples_used);
   row.last_time = e.last_time;

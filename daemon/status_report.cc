@@ -118,6 +118,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                    {"relative", A::kRight},
                    {"target", A::kRight},
                    {"τ [samples]", A::kRight},
+                   {"T_int [time]", A::kRight},
                    {"n_eff", A::kRight},
                    {"warm-up ends", A::kRight},
                    {"state", A::kLeft},
@@ -132,7 +133,9 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     const bool estimated = !std::isnan(s.half_width);
     table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
                   FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
-                  estimated ? tau : "-", estimated ? neff : "-", FormatValue(s.warmup_end_time),
+                  estimated ? tau : "-",
+                  estimated ? FormatValue(s.integral_time_scale) : "-", estimated ? neff : "-",
+                  FormatValue(s.warmup_end_time),
                   StateWords(s.state), FormatValue(s.met_at_time),
                   s.state == "met" || s.target_kind.empty()
                       ? "-"
@@ -265,6 +268,9 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
   }
   for (const JsonValue& s : statistics->array()) {
     SnapshotRow row;
+    JsonWriter whole;  // as the store keeps it, so that both views render alike
+    whole.Value(s);
+    row.json = whole.text();
     row.statistic = TextOr(s.Find("name"));
     if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
     // A profile's summaries: per quantity (with "points") and its momentum balance.
@@ -277,6 +283,8 @@ std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* 
     row.relative_half_width = NumberOr(s.Find("relative_half_width"));
     row.integrated_time = NumberOr(s.Find("integrated_time"));
     row.effective_samples = NumberOr(s.Find("effective_samples"));
+    row.integral_time_scale = NumberOr(s.Find("integral_time_scale"));
+    row.averaging_time = NumberOr(s.Find("averaging_time"));
     row.warmup_end_time = NumberOr(s.Find("warmup_end_time"));
     row.samples_used = static_cast<std::int64_t>(NumberOr(s.Find("samples_used")));
     row.last_time = NumberOr(s.Find("last_time"));

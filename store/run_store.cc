@@ -83,6 +83,10 @@ CREATE TABLE deliveries(
 )sql",
                                                                            R"sql(
 UPDATE checkpoint SET item = item || '#0' WHERE item LIKE 'state:%';
+)sql",
+                                                                           R"sql(
+ALTER TABLE snapshots ADD COLUMN integral_time_scale REAL;
+ALTER TABLE snapshots ADD COLUMN averaging_time REAL;
 )sql"};
 
 std::string JoinColumns(const std::vector<std::string>& columns) {
@@ -302,7 +306,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     if (!(s = db.Execute("DELETE FROM latest")).ok()) return s;
     auto snapshot = db.Prepare(
         "INSERT OR REPLACE INTO snapshots VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
-        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22, ?23)",
+        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22, ?23, ?24, ?25)",
         &s);
     auto latest = db.Prepare("INSERT INTO latest VALUES (?1, ?2)", &s);
     if (!snapshot || !latest) return s;
@@ -333,6 +337,8 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       snapshot->Bind(21, row.remaining_wall);
       snapshot->Bind(22, row.reference_verdict);
       snapshot->Bind(23, row.profile);
+      snapshot->Bind(24, row.integral_time_scale);
+      snapshot->Bind(25, row.averaging_time);
       if (!(s = snapshot->Run()).ok()) return s;
       latest->Reset();
       latest->Bind(1, position);
@@ -509,7 +515,8 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
         "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
         "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
         "s.target_half_width, s.met_at_time, s.met_at_wall, s.remaining_time, s.remaining_wall, "
-        "s.reference_verdict, s.profile, l.json FROM snapshots s "
+        "s.reference_verdict, s.profile, l.json, s.integral_time_scale, s.averaging_time "
+        "FROM snapshots s "
         "JOIN latest l ON l.position = s.position WHERE s.cycle = ?1 ORDER BY s.position",
         status);
     if (!rows) return;
@@ -538,6 +545,8 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       row.reference_verdict = rows->ColumnText(19);
       row.profile = rows->ColumnText(20);
       row.json = rows->ColumnText(21);
+      row.integral_time_scale = rows->ColumnDouble(22);
+      row.averaging_time = rows->ColumnDouble(23);
       v.statistics.push_back(std::move(row));
     }
     if (!(*status = rows->status()).ok()) return;
@@ -595,7 +604,8 @@ std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
       "SELECT s.cycle, c.wall_time, s.statistic, s.state, s.state_reason, s.value, s.half_width, "
       "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
       "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
-      "s.target_half_width, s.remaining_time, s.profile FROM snapshots s "
+      "s.target_half_width, s.remaining_time, s.profile, s.integral_time_scale, "
+      "s.averaging_time FROM snapshots s "
       "JOIN cycles c ON c.cycle = s.cycle ORDER BY s.cycle, s.position",
       status);
   if (!query) return history;
@@ -621,6 +631,8 @@ std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
     s.target_half_width = query->ColumnDouble(16);
     s.remaining_time = query->ColumnDouble(17);
     s.profile = query->ColumnText(18);
+    s.integral_time_scale = query->ColumnDouble(19);
+    s.averaging_time = query->ColumnDouble(20);
     history.push_back(std::move(h));
   }
   *status = query->status();

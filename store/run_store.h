@@ -46,6 +46,10 @@ struct SnapshotRow {
   double relative_half_width = 0.0;
   double integrated_time = 0.0;
   double effective_samples = 0.0;
+  // Simulated time: the integral time scale (integrated_time in the time column's units) and the
+  // averaging time after the warm-up; NaN when unknown (rows of a store older than schema 4).
+  double integral_time_scale = 0.0;
+  double averaging_time = 0.0;
   double warmup_end_time = 0.0;
   std::int64_t samples_used = 0;
   double last_time = 0.0;
@@ -133,7 +137,7 @@ struct StoredCheckpoint {
 
 class RunStore {
  public:
-  static constexpr int kSchemaVersion = 3;
+  static constexpr int kSchemaVersion = 4;
   // Checkpoint items are stored in pages of this many doubles (3840 bytes: a row fits one 4 KiB
   // database page). A cycle rewrites only the pages that changed.
   static constexpr std::size_t kCheckpointPageDoubles = 480;

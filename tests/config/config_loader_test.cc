@@ -229,6 +229,35 @@ statistics:
   EXPECT_TRUE(c->statistics[3].reference_difference.empty());
 }
 
+TEST(ConfigLoader, WeightingPerSourceAndFlowThroughTimeAreRead) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(R"(flow_through_time: 12.5
+sources:
+  - {name: wake, files: "out/wake/*/U", weighting: time}
+  - {name: walls, files: "out/walls/*/tau.dat", weighting: samples}
+  - {name: bulk, files: "out/bulk/*/Ub.dat"}
+statistics:
+  - {name: u, source: wake, kind: mean, columns: [u]}
+)",
+                                "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  EXPECT_EQ(c->flow_through_time, 12.5);
+  EXPECT_EQ(c->sources[0].weighting, Weighting::kTime);
+  EXPECT_EQ(c->sources[1].weighting, Weighting::kSamples);
+  EXPECT_EQ(c->sources[2].weighting, Weighting::kAuto);  // the default
+  const auto bad = Errors(R"(flow_through_time: -1
+sources:
+  - {name: s, files: a.dat, weighting: seconds}
+statistics:
+  - {name: u, kind: mean, columns: [u]}
+)");
+  // The statistic names no source, and the only one failed: no "needs a source" on top.
+  ASSERT_EQ(bad.size(), 2u);
+  EXPECT_NE(bad[0].find("flow_through_time"), std::string::npos) << bad[0];
+  EXPECT_EQ(bad[1], "/runs/ch420/run.yaml:3:40: weighting must be auto, time or samples, not "
+                    "'seconds'");
+}
+
 TEST(ConfigLoader, ReferenceSeriesAndScaleMistakesSayWhatIsWrong) {
   const auto errors = Errors(R"(sources:
   - {name: s, files: a.dat, scale: {u: 0}}

@@ -350,5 +350,75 @@ statistics:
   EXPECT_NE(reference->Find("words")->string().find("sample by sample"), std::string::npos);
 }
 
+// A wake probe under a Courant-number controlled step, restarted once (the fixture of
+// tests/core/fixtures/make_weighted_moments.py, split into two start-time folders): the daemon
+// weighs each sample by the time it stands for, across the restart, says so in status, gives the
+// integral time scale in time units and flow-throughs, and equals analyze on the whole file.
+TEST_F(SolverTreeRun, CourantSteppedProbeIsTimeWeightedInWatchAndAnalyzeAlike) {
+  const std::string fixture = PLATEAU_TEST_DATA_DIR "/core/fixtures/weighted_moments.dat";
+  std::ifstream in(fixture);
+  std::string header, first_half, second_half, restart_time;
+  std::size_t rows = 0;
+  for (std::string line; std::getline(in, line);) {
+    if (line[0] == '#') {
+      header += line + "\n";
+      continue;
+    }
+    if (rows == 2500) restart_time = line.substr(0, line.find(' '));
+    (rows < 2500 ? first_half : second_half) += line + "\n";
+    ++rows;
+  }
+  ASSERT_EQ(rows, 5000u);
+  Append("wake/0/velocity.dat", header + first_half);
+  Append("wake/" + restart_time + "/velocity.dat", header + second_half);
+  std::ofstream(Path("run.yaml")) << R"(run: wake
+flow_through_time: 2.0
+sources:
+  - name: wake
+    files: "wake/*/velocity.dat"
+statistics:
+  - {name: u, kind: mean, columns: [u]}
+  - {name: uv, kind: covariance, columns: [u, v]}
+)";
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  ASSERT_TRUE(WaitFor([&] { return Samples(0) == 5000; }, 120)) << ReadAll(Path("watch.log"));
+  const auto status = Plateau({"status", Path("run.yaml"), "--json"});
+  const auto table = Plateau({"status", Path("run.yaml")});
+  daemon.Signal(SIGTERM);
+  EXPECT_EQ(daemon.Wait(30), 0);
+  std::string error;
+  const auto document = JsonValue::Parse(status.out, &error);
+  ASSERT_TRUE(document.has_value()) << error << status.out;
+  const JsonValue& u = *ByName(*document).at("u");
+  const JsonValue* weighting = u.Find("weighting");
+  ASSERT_NE(weighting, nullptr) << status.out;
+  EXPECT_TRUE(weighting->Find("time_weighted")->boolean());
+  EXPECT_EQ(weighting->Find("gaps")->Find("count")->number(), 0.0);
+  EXPECT_LT(weighting->Find("spacing")->Find("min")->number(),
+            0.7 * weighting->Find("spacing")->Find("max")->number());
+  const double scale = u.Find("integral_time_scale")->number();
+  EXPECT_NEAR(scale, u.Find("integrated_time")->number() * u.Find("unit_time")->number(),
+              1e-12 * scale);
+  EXPECT_NEAR(u.Find("integral_time_flow_throughs")->number(), scale / 2.0, 1e-12 * scale);
+  EXPECT_GT(u.Find("averaging_flow_throughs")->number(), 1.0);
+  EXPECT_NE(table.out.find("source wake: samples weighted by simulated time"), std::string::npos)
+      << table.out;
+
+  const JsonValue analyzed_document = Analyze({fixture, "--covariance", "u,v"});
+  const auto analyzed = ByName(analyzed_document);
+  ASSERT_EQ(analyzed.count("u"), 1u);
+  EXPECT_TRUE(analyzed_document.Find("sources")->array()[0].Find("weighting")->Find(
+      "time_weighted")->boolean());
+  for (const auto& [watched_name, analyzed_name] :
+       std::vector<std::pair<std::string, std::string>>{{"u", "u"}, {"uv", "cov(u,v)"}}) {
+    const JsonValue& w = *ByName(*document).at(watched_name);
+    for (const char* key : {"mean", "half_width", "integrated_time", "integral_time_scale"}) {
+      const double expected = analyzed.at(analyzed_name)->Find(key)->number();
+      EXPECT_NEAR(w.Find(key)->number(), expected, 1e-12 * std::fabs(expected))
+          << watched_name << " " << key;
+    }
+  }
+}
+
 }  // namespace
 }  // namespace plateau
