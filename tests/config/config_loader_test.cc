@@ -329,6 +329,8 @@ TEST(ConfigLoader, ShippedExampleIsValid) {
   EXPECT_EQ(c->groups.at(0).members.size(), 2u);
   EXPECT_EQ(c->wall_units->wall_shear, "tau_w");
   EXPECT_EQ(c->sources[1].columns.size(), 4u);
+  EXPECT_EQ(c->sources[0].weighting, Weighting::kAuto);
+  EXPECT_EQ(c->flow_through_time, 8.0);
 }
 
 TEST(ConfigLoader, UnreadableFileHasNoLineNumber) {
