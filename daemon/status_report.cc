@@ -78,8 +78,8 @@ std::string TextOr(const JsonValue* v) {
   return v != nullptr && v->type() == JsonValue::Type::kString ? v->string() : "";
 }
 
-// One line per source whose samples are not simply evenly spaced and counted once: weighted by
-// time, spaced unevenly, or with gaps. Read from each statistic's weighting object.
+// One line per source: how its samples are weighted and the spread of their spacing. Read from
+// each statistic's weighting object (the first statistic of a source speaks for it).
 std::string WeightingLines(const LatestView& v) {
   std::set<std::string> seen;
   std::string out;
@@ -90,14 +90,7 @@ std::string WeightingLines(const LatestView& v) {
     const JsonValue* weighting = d->Find("weighting");
     const std::string source = TextOr(d->Find("source"));
     if (weighting == nullptr || !weighting->is_object() || !seen.insert(source).second) continue;
-    const JsonValue* spacing = weighting->Find("spacing");
-    const JsonValue* gaps = weighting->Find("gaps");
-    const JsonValue* timed = weighting->Find("time_weighted");
-    const bool notable = (timed != nullptr && timed->boolean()) ||
-                         (spacing != nullptr && spacing->Find("varies") != nullptr &&
-                          spacing->Find("varies")->boolean()) ||
-                         (gaps != nullptr && NumberOr(gaps->Find("count")) > 0);
-    if (notable) out += "source " + source + ": samples " + TextOr(weighting->Find("description")) + "\n";
+    out += "source " + source + ": samples " + TextOr(weighting->Find("description")) + "\n";
   }
   return out;
 }
