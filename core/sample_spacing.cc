@@ -170,12 +170,13 @@ std::vector<double> SampleSpacing::SaveState() const {
 
 bool SampleSpacing::RestoreState(const std::vector<double>& state) {
   constexpr std::size_t kFixed = 16;
-  if (state.size() < kFixed || state[0] != static_cast<double>(requested_)) return false;
+  if (state.size() < kFixed || state[0] < 0.0 || state[0] > 2.0) return false;
   const auto recent = static_cast<std::size_t>(state[14]);
   const auto gaps = static_cast<std::size_t>(state[15]);
   if (recent > kWindow || gaps > kGapsKept || state.size() != kFixed + recent + 2 * gaps) {
     return false;
   }
+  requested_ = static_cast<Weighting>(static_cast<int>(state[0]));
   decided_ = state[1] != 0.0;
   time_weighted_ = state[2] != 0.0;
   cell_ = state[3];

@@ -73,8 +73,8 @@ class SampleSpacing {
   // One sentence for status and analyze: the weighting, why, and the spread of the spacing.
   std::string Describe() const;
 
-  // Complete state as doubles, for checkpoints; Restore returns false and changes nothing when the
-  // state does not fit.
+  // Complete state as doubles, for checkpoints, the requested weighting with it (the estimates so
+  // far were made under it); Restore returns false and changes nothing when the state does not fit.
   std::vector<double> SaveState() const;
   bool RestoreState(const std::vector<double>& state);
 

@@ -208,7 +208,7 @@ bool SourceStatistics::RestoreWeightingState(const std::vector<double>& state) {
   if (state.empty()) return false;
   const auto size = static_cast<std::size_t>(state[0]);
   if (state.size() < 1 + size || (state.size() - 1 - size) % columns_.size() != 0) return false;
-  SampleSpacing spacing(spacing_.requested());
+  SampleSpacing spacing;
   if (!spacing.RestoreState(std::vector<double>(state.begin() + 1, state.begin() + 1 + size))) {
     return false;
   }

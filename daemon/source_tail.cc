@@ -359,6 +359,27 @@ void SourceTail::Checkpoint(CycleRecord& record) {
   }
 }
 
+void SourceTail::RestoreWeighting(const StoredCheckpoint& checkpoint) {
+  const auto weighting = checkpoint.items.find("weighting:" + config_.name);
+  if (weighting == checkpoint.items.end() ||
+      !source_->RestoreWeightingState(weighting->second)) {
+    // Saved by a plateau before time weighting: its estimates counted every sample once.
+    source_->SetWeighting(Weighting::kSamples);
+    log_->warn("source '{}': no usable weighting state in the checkpoint (saved by an older "
+               "plateau?); samples count once each, as its estimates did; time weighting needs a "
+               "fresh store",
+               config_.name);
+    return;
+  }
+  if (source_->spacing().requested() != config_.weighting) {
+    log_->warn("source '{}': the config asks for weighting {}, the store's estimates were made "
+               "with {}; they go on with {} (a fresh store applies the new one)",
+               config_.name, WeightingName(config_.weighting),
+               WeightingName(source_->spacing().requested()),
+               WeightingName(source_->spacing().requested()));
+  }
+}
+
 void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
   for (const FileProgress& p : checkpoint.files) {
     if (p.source != config_.name) continue;
@@ -378,17 +399,11 @@ void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
     files_.push_back(std::move(file));
   }
   if (!source_) return;
+  RestoreWeighting(checkpoint);
   const auto gate = checkpoint.items.find("gate:" + config_.name);
   if (gate != checkpoint.items.end() && gate->second.size() == 2) {
     source_->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
     overlap_reported_ = source_->gate().skipped();
-  }
-  const auto weighting = checkpoint.items.find("weighting:" + config_.name);
-  if (weighting == checkpoint.items.end() ||
-      !source_->RestoreWeightingState(weighting->second)) {
-    log_->warn("source '{}': no usable weighting state in the checkpoint (saved by an older "
-               "plateau, or the weighting changed); it is chosen again from the next rows",
-               config_.name);
   }
   for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
     const auto state = checkpoint.items.find("history:" + config_.name + "/" + h.key);

@@ -61,6 +61,9 @@ class SourceTail {
   void Restore(const StoredCheckpoint& checkpoint);
 
  private:
+  // The weighting's state and the rows held back; a checkpoint without them (an older plateau)
+  // goes on counting each sample once, as its estimates did.
+  void RestoreWeighting(const StoredCheckpoint& checkpoint);
   struct TrackedFile {
     std::string path;
     std::int64_t inode = 0;

@@ -241,8 +241,10 @@ TEST(SampleSpacing, WeightingStateRoundTripsWithTheRowsHeldBack) {
       const double row[2] = {time_of(i), x[i]};
       first.Add(row);
     }
-    SourceStatistics resumed = MakeSource({"t", "x"}, requests, Weighting::kAuto);
+    // Made as a changed config would make it: the saved weighting goes on, its estimates use it.
+    SourceStatistics resumed = MakeSource({"t", "x"}, requests, Weighting::kSamples);
     ASSERT_TRUE(resumed.RestoreWeightingState(first.SaveWeightingState()));
+    EXPECT_EQ(resumed.spacing().requested(), Weighting::kAuto);
     ASSERT_TRUE(resumed.histories()[0].history->RestoreState(
         first.histories()[0].history->SaveState()));
     resumed.gate().Resume(first.gate().last_time(), first.gate().skipped());
