@@ -3,19 +3,13 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
-#include <sstream>
+
+#include "core/message_number.h"
 
 namespace plateau {
 namespace {
 
 constexpr double kInfinity = std::numeric_limits<double>::infinity();
-
-std::string Format(double value) {
-  std::ostringstream out;
-  out.precision(3);
-  out << value;
-  return out.str();
-}
 
 double DegreesOfFreedom(Estimator estimator, int batches) {
   switch (estimator) {
@@ -97,20 +91,20 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
                "the autocorrelation estimate is not available; overlapping batch means decide");
   } else if (periodic && e.lag_window >= kPeriodsPerWindow * e.oscillation_period) {
     d = Decide(e, Estimator::kLagWindow,
-               "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
+               "the autocorrelation oscillates with a period of " + MessageNumber(e.oscillation_period) +
                    " samples: the autocorrelation sum overstates the error and batch means keep a "
                    "residue of the oscillation; a Parzen lag window of " +
-                   Format(e.lag_window / e.oscillation_period) + " periods decides");
+                   MessageNumber(e.lag_window / e.oscillation_period) + " periods decides");
   } else if (periodic) {
     d = Decide(e, Largest(e),
-               "the autocorrelation oscillates with a period of " + Format(e.oscillation_period) +
-                   " samples and the lag window spans fewer than " + Format(kPeriodsPerWindow) +
+               "the autocorrelation oscillates with a period of " + MessageNumber(e.oscillation_period) +
+                   " samples and the lag window spans fewer than " + MessageNumber(kPeriodsPerWindow) +
                    " periods: the largest estimate decides");
   } else if (short_batches) {
     d = Decide(e, Estimator::kAutocorrelation,
-               "batches of " + Format(e.batch_length) + " samples are shorter than " +
-                   Format(kBatchesPerTau) + " integrated times (tau = " +
-                   Format(e.tau_autocorrelation) +
+               "batches of " + MessageNumber(e.batch_length) + " samples are shorter than " +
+                   MessageNumber(kBatchesPerTau) + " integrated times (tau = " +
+                   MessageNumber(e.tau_autocorrelation) +
                    "), so batch means are biased low; the autocorrelation estimate decides");
   } else if (batch_side > kDisagreementFactor * e.se_autocorrelation) {
     const Estimator larger = e.se_overlapping_batch_means >= e.se_batch_means
@@ -118,7 +112,7 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
                                  : Estimator::kBatchMeans;
     d = Decide(e, larger,
                "batch means exceed the autocorrelation estimate by a factor of " +
-                   Format(batch_side / e.se_autocorrelation) +
+                   MessageNumber(batch_side / e.se_autocorrelation) +
                    ": slow variation beyond the autocorrelation window; batch means decide");
   } else {
     d = Decide(e, Estimator::kAutocorrelation,

@@ -4,21 +4,15 @@
 
 #include <cmath>
 #include <limits>
-#include <sstream>
+
+#include "core/message_number.h"
 
 namespace plateau {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-std::string Format(double value) {
-  std::ostringstream out;
-  out.precision(3);
-  out << value;
-  return out.str();
-}
-
-std::string Percent(double fraction) { return Format(100.0 * fraction) + " %"; }
+std::string Percent(double fraction) { return MessageNumber(100.0 * fraction) + " %"; }
 
 }  // namespace
 
@@ -64,11 +58,11 @@ std::pair<ConvergenceState, std::string> ConvergenceTracker::Judge(
   const double span = e.last_time - e.first_time;
   if (span > 0.0 && e.warmup_end_time - e.first_time >= kWarmupStillGoing * span) {
     return {S::kWarmingUp, "the start-up transient still fills nearly half of the data (cut at " +
-                               Format(e.warmup_end_time) + ")"};
+                               MessageNumber(e.warmup_end_time) + ")"};
   }
   if (e.drift_detected) {
-    return {S::kDrifting, "the mean still moves: Geweke z = " + Format(e.drift.z) + ", p = " +
-                              Format(e.drift.p_value)};
+    return {S::kDrifting, "the mean still moves: Geweke z = " + MessageNumber(e.drift.z) + ", p = " +
+                              MessageNumber(e.drift.p_value)};
   }
   if (!target_) return {S::kMonitored, "no target set"};
   const double wanted = TargetHalfWidth(e.value);
@@ -77,20 +71,20 @@ std::pair<ConvergenceState, std::string> ConvergenceTracker::Judge(
             target_->kind == Target::Kind::kRelative
                 ? "half-width " + Percent(e.relative_half_width) + " of the value, target " +
                       Percent(target_->value)
-                : "half-width " + Format(e.half_width) + ", target " + Format(target_->value)};
+                : "half-width " + MessageNumber(e.half_width) + ", target " + MessageNumber(target_->value)};
   }
   if (e.effective_samples < settings_.minimum_effective_samples) {
-    return {S::kConverging, "only " + Format(e.effective_samples) +
+    return {S::kConverging, "only " + MessageNumber(e.effective_samples) +
                                 " effective samples, the rule asks for " +
-                                Format(settings_.minimum_effective_samples)};
+                                MessageNumber(settings_.minimum_effective_samples)};
   }
   if (e.decision.batches_too_short) {
     return {S::kConverging, "batches are shorter than ten integrated times"};
   }
   const double averaged = e.last_time - e.warmup_end_time;
   if (averaged < settings_.minimum_time) {
-    return {S::kConverging, "averaged over " + Format(averaged) + " time units, the minimum is " +
-                                Format(settings_.minimum_time)};
+    return {S::kConverging, "averaged over " + MessageNumber(averaged) + " time units, the minimum is " +
+                                MessageNumber(settings_.minimum_time)};
   }
   return {S::kMet, ""};
 }
@@ -113,8 +107,8 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
       met_at_time_ = estimate.last_time;
       met_at_wall_ = wall_time;
       events.push_back({ConvergenceEvent::Kind::kMet, statistic_, estimate.last_time, wall_time,
-                        statistic_ + " met its target: " + Format(estimate.value) + " ± " +
-                            Format(estimate.half_width) + " at " +
+                        statistic_ + " met its target: " + MessageNumber(estimate.value) + " ± " +
+                            MessageNumber(estimate.half_width) + " at " +
                             Percent(estimate.confidence) + " confidence"});
     }
   } else {
@@ -139,7 +133,7 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
       events.push_back({ConvergenceEvent::Kind::kDrift, statistic_, estimate.last_time, wall_time,
                         statistic_ + " drifts: the mean of the first 10 % differs from the last "
                                      "50 % (Geweke z = " +
-                            Format(estimate.drift.z) + ", p = " + Format(estimate.drift.p_value) +
+                            MessageNumber(estimate.drift.z) + ", p = " + MessageNumber(estimate.drift.p_value) +
                             ")"});
     }
     drift_reported_ = estimate.drift_detected && (drift_reported_ || steady_before);

@@ -2,19 +2,10 @@
 
 #include <cmath>
 #include <limits>
-#include <sstream>
+
+#include "core/message_number.h"
 
 namespace plateau {
-namespace {
-
-std::string Format(double value) {
-  std::ostringstream out;
-  out.precision(3);
-  out << value;
-  return out.str();
-}
-
-}  // namespace
 
 std::string_view VerdictName(ReferenceComparison::Verdict verdict) {
   switch (verdict) {
@@ -36,24 +27,24 @@ ReferenceComparison CompareWithReference(const StatisticEstimate& e, double refe
                                            : std::numeric_limits<double>::quiet_NaN();
   c.half_width = e.half_width;
   const std::string relative =
-      std::isnan(c.relative_difference) ? "" : " (" + Format(100.0 * c.relative_difference) + " %)";
+      std::isnan(c.relative_difference) ? "" : " (" + MessageNumber(100.0 * c.relative_difference) + " %)";
   if (e.state != EstimateState::kEstimated || std::isnan(e.half_width)) {
-    c.words = "no interval yet to compare with the reference " + Format(reference);
+    c.words = "no interval yet to compare with the reference " + MessageNumber(reference);
     return c;
   }
   if (e.drift_detected) {
-    c.words = "the mean still drifts: no verdict against the reference " + Format(reference) + " yet";
+    c.words = "the mean still drifts: no verdict against the reference " + MessageNumber(reference) + " yet";
     return c;
   }
   if (std::fabs(c.difference) <= e.half_width) {
     c.verdict = ReferenceComparison::Verdict::kConsistent;
-    c.words = "consistent with the reference " + Format(reference) + ": the difference " +
-              Format(c.difference) + relative + " is within the sampling uncertainty ±" +
-              Format(e.half_width);
+    c.words = "consistent with the reference " + MessageNumber(reference) + ": the difference " +
+              MessageNumber(c.difference) + relative + " is within the sampling uncertainty ±" +
+              MessageNumber(e.half_width);
   } else {
     c.verdict = ReferenceComparison::Verdict::kBias;
-    c.words = "differs from the reference " + Format(reference) + " by " + Format(c.difference) +
-              relative + ", outside the sampling uncertainty ±" + Format(e.half_width) +
+    c.words = "differs from the reference " + MessageNumber(reference) + " by " + MessageNumber(c.difference) +
+              relative + ", outside the sampling uncertainty ±" + MessageNumber(e.half_width) +
               ": a bias (mesh, model or set-up) that more averaging will not remove";
   }
   return c;
@@ -67,9 +58,9 @@ ReferenceComparison CompareWithSeriesReference(const StatisticEstimate& e,
   c.difference = e.value - c.reference;
   c.relative_difference = c.reference != 0.0 ? c.difference / std::fabs(c.reference)
                                              : std::numeric_limits<double>::quiet_NaN();
-  const std::string of = Format(factor) + " x " + reference.name + " = " + Format(c.reference);
+  const std::string of = MessageNumber(factor) + " x " + reference.name + " = " + MessageNumber(c.reference);
   const std::string relative =
-      std::isnan(c.relative_difference) ? "" : " (" + Format(100.0 * c.relative_difference) + " %)";
+      std::isnan(c.relative_difference) ? "" : " (" + MessageNumber(100.0 * c.relative_difference) + " %)";
   const StatisticEstimate* lacking = nullptr;
   if (joint_difference != nullptr) {
     c.method = "joint_series";
@@ -96,13 +87,13 @@ ReferenceComparison CompareWithSeriesReference(const StatisticEstimate& e,
                                 "sampled together), which ignores their correlation";
   if (std::fabs(c.difference) <= c.half_width) {
     c.verdict = ReferenceComparison::Verdict::kConsistent;
-    c.words = "consistent with the reference " + of + ": the difference " + Format(c.difference) +
-              relative + " is within its sampling uncertainty ±" + Format(c.half_width) + " (" +
+    c.words = "consistent with the reference " + of + ": the difference " + MessageNumber(c.difference) +
+              relative + " is within its sampling uncertainty ±" + MessageNumber(c.half_width) + " (" +
               how + ")";
   } else {
     c.verdict = ReferenceComparison::Verdict::kBias;
-    c.words = "differs from the reference " + of + " by " + Format(c.difference) + relative +
-              ", outside its sampling uncertainty ±" + Format(c.half_width) + " (" + how +
+    c.words = "differs from the reference " + of + " by " + MessageNumber(c.difference) + relative +
+              ", outside its sampling uncertainty ±" + MessageNumber(c.half_width) + " (" + how +
               "): a bias (mesh, model or set-up) that more averaging will not remove";
   }
   return c;

@@ -2,17 +2,11 @@
 
 #include <algorithm>
 #include <cmath>
-#include <sstream>
+
+#include "core/message_number.h"
 
 namespace plateau {
 namespace {
-
-std::string Format(double value) {
-  std::ostringstream out;
-  out.precision(3);
-  out << value;
-  return out.str();
-}
 
 double Median(std::vector<double> values) {
   if (values.empty()) return std::numeric_limits<double>::quiet_NaN();
@@ -112,15 +106,15 @@ bool SampleSpacing::varies() const {
 
 std::string SampleSpacing::Describe() const {
   std::string text;
-  const std::string spread = "Δt from " + Format(min_) + " to " + Format(max_) + ", median " +
-                             Format(median_);
+  const std::string spread = "Δt from " + MessageNumber(min_) + " to " + MessageNumber(max_) + ", median " +
+                             MessageNumber(median_);
   if (!decided_) {
     text = "weighting not chosen yet (it is chosen from the first " +
            std::to_string(kDecisionSpacings) + " spacings)";
   } else if (time_weighted_) {
     text = "weighted by simulated time (" +
            std::string(requested_ == Weighting::kTime ? "as configured" : "the spacing varies") +
-           "; " + spread + "; cell " + Format(cell_) + ")";
+           "; " + spread + "; cell " + MessageNumber(cell_) + ")";
   } else if (varies()) {
     text = "weighted per sample (" +
            std::string(requested_ == Weighting::kSamples ? "as configured"
@@ -129,14 +123,14 @@ std::string SampleSpacing::Describe() const {
            "): averages lean towards the short steps; set weighting: time";
   } else {
     text = "weighted per sample" +
-           std::string(spacings_ > 0 ? " (even spacing, Δt " + Format(median_) + ")" : "");
+           std::string(spacings_ > 0 ? " (even spacing, Δt " + MessageNumber(median_) + ")" : "");
   }
   if (gap_count_ > 0) {
     const Gap& last = gaps_.back();
     text += "; " + std::to_string(gap_count_) + (gap_count_ == 1 ? " gap" : " gaps") +
-            " longer than " + Format(kGapFactor) + " median spacings, the last from t = " +
-            Format(last.from) + " to " + Format(last.to) +
-            (time_weighted_ ? " (the sample after a gap weighs " + Format(kGapFactor) +
+            " longer than " + MessageNumber(kGapFactor) + " median spacings, the last from t = " +
+            MessageNumber(last.from) + " to " + MessageNumber(last.to) +
+            (time_weighted_ ? " (the sample after a gap weighs " + MessageNumber(kGapFactor) +
                                   " median spacings)"
                             : "");
   }

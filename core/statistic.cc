@@ -3,10 +3,10 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <sstream>
 
 #include "core/autocorrelation.h"
 #include "core/batch_means.h"
+#include "core/message_number.h"
 #include "core/mser_truncation.h"
 #include "core/student_t.h"
 
@@ -19,13 +19,6 @@ namespace {
 // transient whose bias matters can stay below the noise of short batches.
 constexpr std::uint64_t kMserBatchSamples = 5;
 constexpr std::size_t kMserBatches = 256;
-
-std::string Format(double value) {
-  std::ostringstream out;
-  out.precision(3);
-  out << value;
-  return out.str();
-}
 
 // Averages of `group` consecutive values; an incomplete last group is dropped.
 std::vector<double> Grouped(const std::vector<double>& values, std::size_t group) {
@@ -263,16 +256,16 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
            e);
 
   if (e.effective_samples < options.minimum_effective_samples) {
-    e.warnings.push_back("only " + Format(e.effective_samples) +
+    e.warnings.push_back("only " + MessageNumber(e.effective_samples) +
                          " effective samples: the interval itself is uncertain");
   }
   if (e.decision.disagreement > kDisagreementFactor) {
-    e.warnings.push_back("estimators disagree by a factor of " + Format(e.decision.disagreement) +
+    e.warnings.push_back("estimators disagree by a factor of " + MessageNumber(e.decision.disagreement) +
                          ": " + e.decision.reason);
   }
   if (e.drift_detected) {
     e.warnings.push_back("still drifting: the first 10 % and the last 50 % differ (Geweke z = " +
-                         Format(e.drift.z) + ", p = " + Format(e.drift.p_value) + ")");
+                         MessageNumber(e.drift.z) + ", p = " + MessageNumber(e.drift.p_value) + ")");
   }
   return e;
 }
