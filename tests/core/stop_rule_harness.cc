@@ -21,7 +21,6 @@
 #include <cstdio>
 #include <cstring>
 #include <functional>
-#include <numbers>
 #include <random>
 #include <string>
 #include <thread>
@@ -29,6 +28,7 @@
 
 #include "core/convergence_tracker.h"
 #include "core/statistic.h"
+#include "tests/core/synthetic_series.h"
 
 namespace plateau {
 namespace {
@@ -47,19 +47,15 @@ struct Case {
   std::function<std::vector<double>(std::size_t n, std::uint64_t seed)> generate;
 };
 
-// AR(1) about kMean with the innovation scale that meets the target after `design` samples.
+// The innovation scale of an AR(1)-like series whose mean's asymptotic standard deviation is
+// s * `gain` / sqrt(n), so that the target is met after `design` samples.
+double DesignInnovation(double gain, std::size_t design) {
+  return kTargetRelative * kMean / gain * std::sqrt(static_cast<double>(design)) / 1.959964;
+}
+
+// AR(1) about kMean: gain 1 / (1 - phi).
 std::vector<double> Ar1(std::size_t n, std::uint64_t seed, double phi, std::size_t design) {
-  const double innovation =
-      kTargetRelative * kMean * (1.0 - phi) * std::sqrt(static_cast<double>(design)) / 1.959964;
-  std::mt19937_64 rng(seed);
-  std::normal_distribution<double> normal(0.0, innovation);
-  std::vector<double> x(n);
-  double state = normal(rng) / std::sqrt(1.0 - phi * phi);
-  for (std::size_t t = 0; t < n; ++t) {
-    x[t] = kMean + state;
-    state = phi * state + normal(rng);
-  }
-  return x;
+  return testing::Ar1(n, phi, seed, kMean, DesignInnovation(1.0 / (1.0 - phi), design));
 }
 
 // ARMA(2,1): x_t = a1 x_{t-1} + a2 x_{t-2} + e_t + b e_{t-1}; asymptotic variance of the mean
@@ -67,10 +63,8 @@ std::vector<double> Ar1(std::size_t n, std::uint64_t seed, double phi, std::size
 // 2000 steps, so that it is stationary.
 std::vector<double> Arma21(std::size_t n, std::uint64_t seed, std::size_t design) {
   constexpr double a1 = 1.2, a2 = -0.3, b = 0.5;
-  const double innovation = kTargetRelative * kMean * (1.0 - a1 - a2) / (1.0 + b) *
-                            std::sqrt(static_cast<double>(design)) / 1.959964;
   std::mt19937_64 rng(seed);
-  std::normal_distribution<double> normal(0.0, innovation);
+  std::normal_distribution<double> normal(0.0, DesignInnovation((1.0 + b) / (1.0 - a1 - a2), design));
   std::vector<double> x(n);
   double x1 = 0.0, x2 = 0.0, e1 = 0.0;
   for (std::size_t t = 0; t < n + 2000; ++t) {
@@ -88,15 +82,10 @@ std::vector<double> Arma21(std::size_t n, std::uint64_t seed, std::size_t design
 // the tone adds nothing to the asymptotic variance of the mean.
 std::vector<double> SineAr1(std::size_t n, std::uint64_t seed, std::size_t design) {
   constexpr double phi = 0.9;
-  std::vector<double> x = Ar1(n, seed, phi, design);
-  const double innovation =
-      kTargetRelative * kMean * (1.0 - phi) * std::sqrt(static_cast<double>(design)) / 1.959964;
-  const double amplitude = innovation * std::sqrt(2.0 / (1.0 - phi * phi));
-  std::mt19937_64 rng(seed ^ 0x9e3779b97f4a7c15ULL);
-  const double phase = std::uniform_real_distribution<double>(0.0, 2.0 * std::numbers::pi)(rng);
-  for (std::size_t t = 0; t < n; ++t) {
-    x[t] += amplitude * std::sin(2.0 * std::numbers::pi * static_cast<double>(t) / 40.0 + phase);
-  }
+  const double innovation = DesignInnovation(1.0 / (1.0 - phi), design);
+  std::vector<double> x =
+      testing::SinePlusAr1(n, 40.0, std::sqrt(2.0 / (1.0 - phi * phi)), phi, seed);
+  for (double& v : x) v = kMean + innovation * v;
   return x;
 }
 
