@@ -79,9 +79,6 @@ void SampleSpacing::Record(double spacing, double time) {
     ++gap_count_;
     gaps_.push_back({last_time_, time});
     if (gaps_.size() > kGapsKept) gaps_.erase(gaps_.begin());
-  } else {
-    steady_min_ = std::isnan(steady_min_) ? spacing : std::min(steady_min_, spacing);
-    steady_max_ = std::isnan(steady_max_) ? spacing : std::max(steady_max_, spacing);
   }
   if (recent_.size() < kWindow) {
     recent_.push_back(spacing);
@@ -92,7 +89,20 @@ void SampleSpacing::Record(double spacing, double time) {
   if (std::isnan(median_) || spacings_ % kMedianEvery == 0) UpdateMedian();
 }
 
-void SampleSpacing::UpdateMedian() { median_ = Median(recent_); }
+void SampleSpacing::UpdateMedian() {
+  median_ = Median(recent_);
+  varied_ = varied_ || RecentSpread() > kVaryingTolerance;
+}
+
+double SampleSpacing::RecentSpread() const {
+  if (recent_.empty()) return 0.0;
+  std::vector<double> sorted = recent_;
+  std::sort(sorted.begin(), sorted.end());
+  const auto at = [&](double q) {
+    return sorted[static_cast<std::size_t>(q * static_cast<double>(sorted.size() - 1))];
+  };
+  return (at(0.9) - at(0.1)) / at(0.5);
+}
 
 double SampleSpacing::unit_time() const {
   if (time_weighted_) return cell_;
@@ -100,9 +110,7 @@ double SampleSpacing::unit_time() const {
   return (last_time_ - first_time_) / static_cast<double>(spacings_);
 }
 
-bool SampleSpacing::varies() const {
-  return spacings_ > 0 && (steady_max_ - steady_min_) / median_ > kVaryingTolerance;
-}
+bool SampleSpacing::varies() const { return varied_ || RecentSpread() > kVaryingTolerance; }
 
 std::string SampleSpacing::Describe() const {
   std::string text;
@@ -112,9 +120,10 @@ std::string SampleSpacing::Describe() const {
     text = "weighting not chosen yet (it is chosen from the first " +
            std::to_string(kDecisionSpacings) + " spacings)";
   } else if (time_weighted_) {
+    // "Cell" would read as a mesh cell: the user sees the unit as a time step of its own.
     text = "weighted by simulated time (" +
            std::string(requested_ == Weighting::kTime ? "as configured" : "the spacing varies") +
-           "; " + spread + "; cell " + MessageNumber(cell_) + ")";
+           "; " + spread + "); τ, n_eff and samples count steps of " + MessageNumber(cell_);
   } else if (varies()) {
     text = "weighted per sample (" +
            std::string(requested_ == Weighting::kSamples ? "as configured"
@@ -148,8 +157,7 @@ std::vector<double> SampleSpacing::SaveState() const {
                                min_,
                                max_,
                                median_,
-                               steady_min_,
-                               steady_max_,
+                               varied_ ? 1.0 : 0.0,
                                static_cast<double>(recent_next_),
                                static_cast<double>(gap_count_),
                                static_cast<double>(recent_.size()),
@@ -163,10 +171,10 @@ std::vector<double> SampleSpacing::SaveState() const {
 }
 
 bool SampleSpacing::RestoreState(const std::vector<double>& state) {
-  constexpr std::size_t kFixed = 16;
+  constexpr std::size_t kFixed = 15;
   if (state.size() < kFixed || state[0] < 0.0 || state[0] > 2.0) return false;
-  const auto recent = static_cast<std::size_t>(state[14]);
-  const auto gaps = static_cast<std::size_t>(state[15]);
+  const auto recent = static_cast<std::size_t>(state[13]);
+  const auto gaps = static_cast<std::size_t>(state[14]);
   if (recent > kWindow || gaps > kGapsKept || state.size() != kFixed + recent + 2 * gaps) {
     return false;
   }
@@ -180,10 +188,9 @@ bool SampleSpacing::RestoreState(const std::vector<double>& state) {
   min_ = state[7];
   max_ = state[8];
   median_ = state[9];
-  steady_min_ = state[10];
-  steady_max_ = state[11];
-  recent_next_ = static_cast<std::size_t>(state[12]);
-  gap_count_ = static_cast<std::uint64_t>(state[13]);
+  varied_ = state[10] != 0.0;
+  recent_next_ = static_cast<std::size_t>(state[11]);
+  gap_count_ = static_cast<std::uint64_t>(state[12]);
   recent_.assign(state.begin() + kFixed, state.begin() + kFixed + recent);
   gaps_.clear();
   for (std::size_t g = 0; g < gaps; ++g) {

@@ -65,7 +65,9 @@ class SampleSpacing {
   double max_spacing() const { return max_; }
   // Median of the recent spacings (the last kWindow), gaps included.
   double median_spacing() const { return median_; }
-  // Whether the spacing, gaps left out, has varied by more than kVaryingTolerance since the start.
+  // Whether the spacing has varied by more than kVaryingTolerance: the middle 80 % of the recent
+  // spacings (10th to 90th percentile) spread by more than that share of their median, now or at
+  // any earlier look. A single odd step (a skipped bad line) is not a varying step.
   bool varies() const;
   std::uint64_t gap_count() const { return gap_count_; }
   // The last kGapsKept gaps, oldest first.
@@ -83,6 +85,8 @@ class SampleSpacing {
   static constexpr std::size_t kMedianEvery = 64;
   void Record(double spacing, double time);
   void UpdateMedian();
+  // (90th - 10th percentile) / median of the recent spacings; 0 without any.
+  double RecentSpread() const;
 
   Weighting requested_;
   bool decided_ = false;
@@ -94,8 +98,7 @@ class SampleSpacing {
   double min_ = std::numeric_limits<double>::quiet_NaN();
   double max_ = std::numeric_limits<double>::quiet_NaN();
   double median_ = std::numeric_limits<double>::quiet_NaN();
-  double steady_min_ = std::numeric_limits<double>::quiet_NaN();  // gaps left out
-  double steady_max_ = std::numeric_limits<double>::quiet_NaN();
+  bool varied_ = false;  // the recent spacings spread wider than kVaryingTolerance at some look
   std::vector<double> recent_;  // ring of the last kWindow spacings
   std::size_t recent_next_ = 0;
   std::uint64_t gap_count_ = 0;

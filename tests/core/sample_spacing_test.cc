@@ -222,6 +222,15 @@ TEST(SampleSpacing, AutomaticChoiceWeighsByTimeWhenTheStepVariesAndSaysWhy) {
   EXPECT_TRUE(counted.varies());
   EXPECT_NE(counted.Describe().find("set weighting: time"), std::string::npos)
       << counted.Describe();
+  // One step twice as long (a bad line skipped) among even ones is no varying step: found in the
+  // demo, whose probe file carries a deliberately broken line.
+  SampleSpacing one_odd_step(Weighting::kSamples);
+  for (int i = 0; i <= 300; ++i) {
+    if (i != 150) one_odd_step.Next(0.002 * i);
+  }
+  EXPECT_FALSE(one_odd_step.varies()) << one_odd_step.Describe();
+  EXPECT_EQ(one_odd_step.Describe().find("set weighting"), std::string::npos)
+      << one_odd_step.Describe();
 }
 
 // A checkpoint taken while rows are held back (the weighting not chosen yet) and one taken after:
