@@ -58,11 +58,10 @@ class Family {
   std::string name_;
 };
 
-asio::awaitable<void> Serve(tcp::socket socket, const RunMonitor& monitor, int& connections) {
-  struct Count {
-    int& n;
-    ~Count() { --n; }
-  } count{connections};
+// `ticket` counts the connection until the coroutine's frame is destroyed, which may be after the
+// server's (an io_context destroyed with the connection pending).
+asio::awaitable<void> Serve(tcp::socket socket, const RunMonitor& monitor,
+                            [[maybe_unused]] ConnectionCount::Ticket ticket) {
   beast::tcp_stream stream(std::move(socket));
   beast::flat_buffer buffer;
   http::request_parser<http::empty_body> parser;
@@ -131,12 +130,11 @@ void MetricsServer::Accept() {
       if (error != asio::error::operation_aborted) Accept();
       return;
     }
-    if (connections_ >= kMaxConnections) {
+    if (connections_.open() >= kMaxConnections) {
       boost::system::error_code ignored;
       socket.close(ignored);  // the scraper retries at its next interval
     } else {
-      ++connections_;
-      asio::co_spawn(io_, Serve(std::move(socket), monitor_, connections_), asio::detached);
+      asio::co_spawn(io_, Serve(std::move(socket), monitor_, connections_.Open()), asio::detached);
     }
     Accept();
   });

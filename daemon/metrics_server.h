@@ -15,6 +15,7 @@
 #include <string>
 
 #include "core/status.h"
+#include "daemon/connection_count.h"
 #include "daemon/run_monitor.h"
 
 namespace plateau {
@@ -30,6 +31,8 @@ class MetricsServer {
   Status Start(const std::string& listen);
   // The port actually bound (for a configured port 0).
   unsigned short port() const;
+  // Connections open now, counting those past the limit that are being turned away.
+  int connections() const { return connections_.open(); }
 
   // The exposition text of the monitor's last cycle, at wall-clock time `now`.
   static std::string Exposition(const RunMonitor& monitor, double now);
@@ -41,7 +44,7 @@ class MetricsServer {
   RunMonitor& monitor_;
   std::shared_ptr<spdlog::logger> log_;
   boost::asio::ip::tcp::acceptor acceptor_;
-  int connections_ = 0;
+  ConnectionCount connections_;
 };
 
 }  // namespace plateau

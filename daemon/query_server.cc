@@ -50,8 +50,10 @@ LatestView MemoryView(const RunMonitor& monitor) {
 class QueryServer::Session : public std::enable_shared_from_this<Session> {
  public:
   Session(QueryServer& server, stream_protocol::socket socket)
-      : server_(server), socket_(std::move(socket)), buffer_(kMaxRequestBytes) {}
-  ~Session() { --server_.connections_; }
+      : server_(server),
+        ticket_(server.connections_.Open()),
+        socket_(std::move(socket)),
+        buffer_(kMaxRequestBytes) {}
 
   void Read() {
     asio::async_read_until(
@@ -83,6 +85,7 @@ class QueryServer::Session : public std::enable_shared_from_this<Session> {
 
  private:
   QueryServer& server_;
+  ConnectionCount::Ticket ticket_;
   stream_protocol::socket socket_;
   asio::streambuf buffer_;
   std::string reply_;
@@ -123,9 +126,8 @@ void QueryServer::Accept() {
       }
       return;
     }
-    ++connections_;
     auto session = std::make_shared<Session>(*this, std::move(socket));
-    if (connections_ > kMaxConnections) {
+    if (connections_.open() > kMaxConnections) {
       session->Reply(ErrorJson("too many connections (at most " + std::to_string(kMaxConnections) +
                                "); try again"),
                      false);

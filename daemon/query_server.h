@@ -15,6 +15,7 @@
 #include <string>
 
 #include "core/status.h"
+#include "daemon/connection_count.h"
 #include "daemon/run_monitor.h"
 
 namespace plateau {
@@ -34,6 +35,8 @@ class QueryServer {
 
   // The reply (one JSON line, no newline) to one request line.
   std::string Answer(std::string_view line);
+  // Connections open now, counting those past the limit that are being turned away.
+  int connections() const { return connections_.open(); }
 
  private:
   class Session;
@@ -45,7 +48,7 @@ class QueryServer {
   std::shared_ptr<spdlog::logger> log_;
   boost::asio::local::stream_protocol::acceptor acceptor_;
   std::string path_;
-  int connections_ = 0;
+  ConnectionCount connections_;
 };
 
 // The daemon's reply to `request` on the socket at `path`, within `timeout` seconds; nullopt when
