@@ -90,7 +90,6 @@ std::optional<SourceStatistics> SourceStatistics::Make(
     }
     source.statistics_.emplace_back(name, *formula, feed->history);
     source.columns_of_.push_back(std::move(names));
-    source.request_of_.push_back(r);
   }
   return source;
 }

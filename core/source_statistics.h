@@ -32,8 +32,6 @@ class SourceStatistics {
     std::string message;
   };
   const std::vector<Problem>& problems() const { return problems_; }
-  // Index of the request each statistic was made from, in the order of statistics().
-  const std::vector<std::size_t>& request_of() const { return request_of_; }
 
   // A mean request for every column but the time column: what `analyze` does by default.
   static std::vector<StatisticRequest> MeansOfEveryColumn(const std::vector<std::string>& columns,
@@ -109,7 +107,6 @@ class SourceStatistics {
   TimeOrderGate gate_;
   std::vector<Statistic> statistics_;
   std::vector<std::vector<std::string>> columns_of_;
-  std::vector<std::size_t> request_of_;
   std::vector<Problem> problems_;
   std::vector<Feed> feeds_;
   std::vector<double> scales_;  // one factor per column, 1 unless set

@@ -6,6 +6,7 @@
 #include <cstdint>
 #include <limits>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "core/combination_rule.h"
@@ -19,6 +20,9 @@ enum class EstimateState {
   kNotEnoughData,  // a value, but too few samples or blocks after the warm-up for an interval
   kEstimated,      // value and interval
 };
+
+// The state's name in JSON and the store: "no_data", "not_enough_data", "estimated".
+std::string_view EstimateStateName(EstimateState state);
 
 struct StatisticEstimate {
   static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();

@@ -41,8 +41,6 @@ void SqliteStatement::BindBlob(int index, const double* values, std::size_t coun
                     SQLITE_TRANSIENT);
 }
 
-void SqliteStatement::BindNull(int index) { sqlite3_bind_null(statement_, index); }
-
 bool SqliteStatement::Step() {
   const int rc = sqlite3_step(statement_);
   if (rc == SQLITE_ROW) return true;

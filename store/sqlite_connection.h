@@ -27,7 +27,6 @@ class SqliteStatement {
   void Bind(int index, std::int64_t value);
   void Bind(int index, const std::string& value);
   void BindBlob(int index, const double* values, std::size_t count);
-  void BindNull(int index);
 
   // Steps once: true with a row, false when done. An error ends the statement and is kept in
   // status().

@@ -29,8 +29,8 @@
 #include <vector>
 
 #include "config/config_loader.h"
-#include "daemon/run_logger.h"
-#include "daemon/run_monitor.h"
+#include "daemon/runtime/run_logger.h"
+#include "daemon/monitoring/run_monitor.h"
 #include "store/run_store.h"
 #include "tests/bench/bench_process.h"
 

@@ -1,4 +1,4 @@
-#include "daemon/alert_message.h"
+#include "daemon/alerts/alert_message.h"
 
 #include <gtest/gtest.h>
 

@@ -1,5 +1,5 @@
 // End-to-end checks of `plateau analyze`: what a user types, what they read, what a script parses.
-#include "daemon/analyze_command.h"
+#include "daemon/commands/analyze_command.h"
 
 #include <gtest/gtest.h>
 #include <sys/wait.h>

@@ -1,4 +1,4 @@
-#include "daemon/init_command.h"
+#include "daemon/commands/init_command.h"
 
 #include <gtest/gtest.h>
 #include <unistd.h>

@@ -1,8 +1,8 @@
-#include "daemon/json_value.h"
+#include "daemon/presentation/json_value.h"
 
 #include <gtest/gtest.h>
 
-#include "daemon/query_request.h"
+#include "daemon/serving/query_request.h"
 
 namespace plateau {
 namespace {

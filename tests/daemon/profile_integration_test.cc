@@ -8,7 +8,7 @@
 #include <fstream>
 #include <random>
 
-#include "daemon/json_value.h"
+#include "daemon/presentation/json_value.h"
 #include "tests/core/channel_dns.h"
 #include "tests/daemon/run_folder.h"
 

@@ -13,8 +13,8 @@
 #include <sstream>
 #include <thread>
 
-#include "daemon/json_value.h"
-#include "daemon/query_server.h"
+#include "daemon/presentation/json_value.h"
+#include "daemon/serving/query_server.h"
 #include "tests/daemon/run_folder.h"
 
 namespace plateau {

@@ -12,9 +12,9 @@
 #include <memory>
 #include <string>
 
-#include "daemon/metrics_server.h"
-#include "daemon/query_server.h"
-#include "daemon/run_logger.h"
+#include "daemon/serving/metrics_server.h"
+#include "daemon/serving/query_server.h"
+#include "daemon/runtime/run_logger.h"
 
 namespace plateau {
 namespace {

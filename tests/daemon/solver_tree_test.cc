@@ -11,8 +11,8 @@
 #include <sstream>
 
 #include "config/config_loader.h"
-#include "daemon/analyze_command.h"
-#include "daemon/json_value.h"
+#include "daemon/commands/analyze_command.h"
+#include "daemon/presentation/json_value.h"
 #include "tests/daemon/run_folder.h"
 #include "tests/daemon/solver_tree.h"
 

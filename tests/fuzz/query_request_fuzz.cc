@@ -5,7 +5,7 @@
 #include <string>
 #include <string_view>
 
-#include "daemon/query_request.h"
+#include "daemon/serving/query_request.h"
 #include "tests/fuzz/fuzz_checks.h"
 
 namespace plateau::fuzz {

@@ -1,0 +1,334 @@
+#include "daemon/commands/init_command.h"
+
+#include <glob.h>
+
+#include <charconv>
+#include <cmath>
+#include <filesystem>
+#include <map>
+#include <optional>
+#include <set>
+#include <sstream>
+
+#include "config/config_loader.h"
+#include "daemon/ingest/series_catalog.h"
+
+namespace plateau {
+namespace {
+
+namespace fs = std::filesystem;
+
+// Regular files a glob matches now.
+std::vector<std::string> Expand(const std::string& pattern) {
+  std::vector<std::string> paths;
+  glob_t matches{};
+  if (::glob(pattern.c_str(), 0, nullptr, &matches) == 0) {
+    for (std::size_t i = 0; i < matches.gl_pathc; ++i) {
+      if (fs::is_regular_file(matches.gl_pathv[i])) paths.emplace_back(matches.gl_pathv[i]);
+    }
+  }
+  ::globfree(&matches);
+  return paths;
+}
+
+std::string Quoted(const std::string& text) {
+  std::string out = "\"";
+  for (char c : text) {
+    if (c == '"' || c == '\\') out += '\\';
+    out += c;
+  }
+  return out + "\"";
+}
+
+std::optional<double> Fraction(const std::string& text) {
+  double value = 0.0;
+  const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+  if (ec != std::errc() || ptr != text.data() + text.size() || !(value > 0.0) || value >= 1.0) {
+    return std::nullopt;
+  }
+  return value;
+}
+
+// The columns of a source as one comment: all of them when few, else the first ones and a count.
+std::string ColumnList(const std::vector<std::string>& columns) {
+  constexpr std::size_t kShown = 8;
+  std::string list;
+  for (std::size_t c = 0; c < columns.size() && c < kShown; ++c) list += " " + columns[c];
+  if (columns.size() > kShown) list += " ... (" + std::to_string(columns.size()) + " in all)";
+  return list;
+}
+
+// A line of probes for a profile: consecutive probe numbers, three components each, locations
+// that differ along one coordinate only and increase along it.
+struct ProbeLine {
+  int coordinate = -1;  // 0, 1, 2 for x, y, z
+  int first_id = 0;
+  std::vector<double> positions;
+};
+
+std::optional<ProbeLine> ProbeLineOf(const SegmentSample& s) {
+  const std::vector<ProbeLocation>& probes = s.probes;
+  if (probes.size() < 3 || s.columns.size() != 1 + 3 * probes.size()) return std::nullopt;
+  for (std::size_t p = 0; p < probes.size(); ++p) {
+    if (probes[p].id != probes[0].id + static_cast<int>(p) || std::isnan(probes[p].position[0])) {
+      return std::nullopt;
+    }
+  }
+  for (int k = 0; k < 3; ++k) {
+    bool others_fixed = true;
+    bool increasing = true;
+    for (std::size_t p = 1; p < probes.size(); ++p) {
+      increasing = increasing && probes[p].position[k] > probes[p - 1].position[k];
+      for (int j = 0; j < 3; ++j) {
+        if (j != k) others_fixed = others_fixed && probes[p].position[j] == probes[0].position[j];
+      }
+    }
+    if (others_fixed && increasing) {
+      ProbeLine line{k, probes[0].id, {}};
+      for (const ProbeLocation& l : probes) line.positions.push_back(l.position[k]);
+      return line;
+    }
+  }
+  return std::nullopt;
+}
+
+// Returns true when the entry was written as it stands, false when commented out.
+bool WriteProfile(const Series& series, const ProbeLine& line, std::ostream& raw) {
+  const char axis = "xyz"[line.coordinate];
+  const std::string field = series.first().segment.file_stem;
+  // Written as it stands only when the coordinates are wall distances from a wall at 0 (they grow
+  // from 0); otherwise commented out, since only the user knows where the wall is.
+  bool from_zero = line.positions.front() >= 0.0;
+  for (std::size_t p = 1; p < line.positions.size(); ++p) {
+    from_zero = from_zero && std::fabs(line.positions[p]) > std::fabs(line.positions[p - 1]);
+  }
+  std::ostringstream out;
+  out << "  - name: " << Quoted(series.name) << "    # a line of " << line.positions.size()
+      << " probes along " << axis << "\n"
+      << "    source: " << Quoted(series.name) << "\n"
+      << "    # The probes' " << axis << " coordinates from the file's header. They are wall "
+      << "distances only\n    # if the wall is at " << axis << " = 0: otherwise give the wall's "
+      << axis << " coordinate as wall_at.\n"
+      << "    positions: [";
+  for (std::size_t p = 0; p < line.positions.size(); ++p) {
+    out << (p == 0 ? "" : ", ") << line.positions[p];
+  }
+  out << "]\n    wall_at: 0\n"
+      << "    columns: {u: " << Quoted(field + "[{i}].x") << ", v: " << Quoted(field + "[{i}].y")
+      << ", w: " << Quoted(field + "[{i}].z") << "}\n"
+      << "    first_index: " << line.first_id << "\n"
+      << "    quantities: [U, uu, vv, ww, uv, k]   # monitored: give a target to wait for them\n";
+  if (from_zero) {
+    raw << out.str();
+    return true;
+  }
+  raw << "  # The probes' distances from " << axis << " = 0 do not grow along the line: set wall_at "
+      << "to the wall's\n  # " << axis << " coordinate and remove the '#' of the lines below.\n";
+  std::istringstream lines(out.str());
+  for (std::string l; std::getline(lines, l);) raw << "  #" << l << "\n";
+  return false;
+}
+
+// A column that holds a wall shear stress, by the names solvers and users give it (a
+// `wallShearStress` field's x component, a `tau...` column, or any first signal of a series whose
+// folder says wall shear); empty when none. A guess: the proposal it feeds stays commented out.
+std::string WallShearColumn(const Series& series) {
+  const std::vector<std::string>& columns = series.first().columns;
+  const auto ends_with_x = [](const std::string& c) {
+    return c.size() > 2 && c.compare(c.size() - 2, 2, ".x") == 0;
+  };
+  for (std::size_t i = 1; i < columns.size(); ++i) {
+    const std::string& c = columns[i];
+    if (c.find("wallShearStress") != std::string::npos && ends_with_x(c)) return c;
+    if (c.rfind("tau", 0) == 0 && (c.find('.') == std::string::npos || ends_with_x(c))) return c;
+  }
+  const std::string& folder = series.first().segment.series_folder;
+  const bool shear_folder = folder.find("allShear") != std::string::npos;
+  return shear_folder && columns.size() > 1 ? columns[1] : "";
+}
+
+// The name init gives the mean of `column`: the column itself, or "<source>/<column>" where
+// several sources have a column of that name.
+std::string MeanName(const Series& s, const std::string& column,
+                     const std::map<std::string, int>& column_uses) {
+  return column_uses.at(column) > 1 ? s.name + "/" + column : column;
+}
+
+void WriteWallUnitsProposal(const std::vector<Series>& series,
+                            const std::map<std::string, int>& column_uses, std::ostream& out) {
+  for (const Series& s : series) {
+    const std::string column = WallShearColumn(s);
+    if (column.empty()) continue;
+    out << "\n# Wall units (y+, U+): series '" << s.name << "' holds a wall shear stress. To use "
+        << "it, remove the\n# '#' below and fill in what is marked. A solver's wall shear stress is "
+        << "often kinematic\n# (m^2/s^2: then density 1) and its streamwise component negative: "
+        << "add to the source\n#   scale: {" << Quoted(column) << ": -1}\n"
+        << "# wall_units:\n"
+        << "#   wall_shear: " << Quoted(MeanName(s, column, column_uses))
+        << "   # its mean, defined above\n"
+        << "#   viscosity: FILL_IN        # kinematic viscosity, m^2/s\n"
+        << "#   density: FILL_IN          # kg/m^3; 1 when the wall shear stress is kinematic\n"
+        << "#   half_height: FILL_IN      # channel half-height, for Re_tau and the momentum "
+        << "balance\n";
+    return;
+  }
+}
+
+void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& patterns,
+                 double relative, double confidence, std::ostream& out) {
+  std::string from;
+  for (const std::string& p : patterns) from += (from.empty() ? "" : " ") + p;
+  out << "# plateau run configuration, written by plateau init from: " << from << "\n"
+      << "# Paths are relative to this file's folder. Every key is explained in plateau's\n"
+      << "# README; check a change with: plateau validate THIS_FILE\n";
+  for (const LeftOutFile& f : catalog.left_out) out << "# left out: " << f.path << ": " << f.reason << "\n";
+  for (const std::string& n : catalog.notes) out << "# note: " << n << "\n";
+  out << "run: " << Quoted(fs::current_path().filename().string()) << "\n"
+      << "store: plateau.db          # the SQLite store: snapshots, events, checkpoint\n"
+      << "evaluate_every: 60         # seconds between evaluations\n"
+      << "poll_every: 10             # seconds between looks at the files (inotify is sooner)\n"
+      << "warmup: auto               # MSER start-up cut; or none, or a simulated time\n"
+      << "confirmations: 3           # evaluations in a row a target must hold to count as met\n"
+      << "minimum_effective_samples: 100\n\n"
+      << "# One source per series: a solver function's file, its restart segments in time order.\n"
+      << "sources:\n";
+  std::map<std::string, int> column_uses;
+  for (const Series& s : catalog.series) {
+    const SegmentSample& first = s.first();
+    for (std::size_t c = 1; c < first.columns.size(); ++c) ++column_uses[first.columns[c]];
+    out << "  - name: " << Quoted(s.name) << "    # " << s.segments.size()
+        << (s.segments.size() == 1 ? " segment" : " segments") << ", columns:"
+        << ColumnList(first.columns) << "\n"
+        << "    files: " << Quoted(s.glob) << "\n"
+        << "    time_column: " << Quoted(first.columns.front()) << "\n";
+  }
+  out << "\n# A mean per data column, each to a relative half-width of " << relative * 100
+      << " % at " << confidence * 100 << " % confidence.\n# Other kinds: variance, rms, "
+      << "covariance (2 columns), third_moment (3), tke (3).\nstatistics:\n";
+  for (const Series& s : catalog.series) {
+    const SegmentSample& first = s.first();
+    for (std::size_t c = 1; c < first.columns.size(); ++c) {
+      const std::string& column = first.columns[c];
+      const std::string name = MeanName(s, column, column_uses);
+      out << "  - name: " << Quoted(name) << "\n"
+          << "    source: " << Quoted(s.name) << "\n"
+          << "    kind: mean\n"
+          << "    columns: [" << Quoted(column) << "]\n";
+      // A mean smaller than the fluctuations (a cross-stream velocity, a lift coefficient) has no
+      // useful relative half-width: give it an absolute one, relative to its standard deviation.
+      const double mean = first.mean[c];
+      const double deviation = first.deviation[c];
+      if (deviation > 0.0 && std::fabs(mean) < deviation) {
+        char absolute[32];
+        std::snprintf(absolute, sizeof absolute, "%.3g", relative * deviation);
+        out << "    # mean about zero in the first rows (" << mean << ", standard deviation "
+            << deviation << "):\n    # an absolute target of " << relative
+            << " times the standard deviation\n"
+            << "    target: {absolute: " << absolute << ", confidence: " << confidence << "}\n";
+      } else {
+        out << "    target: {relative: " << relative << ", confidence: " << confidence << "}\n";
+      }
+    }
+  }
+  std::ostringstream profiles;
+  bool any_active = false;
+  for (const Series& s : catalog.series) {
+    if (const std::optional<ProbeLine> line = ProbeLineOf(s.first())) {
+      any_active = WriteProfile(s, *line, profiles) || any_active;
+    }
+  }
+  if (!profiles.str().empty()) out << (any_active ? "\nprofiles:\n" : "\n# profiles:\n") << profiles.str();
+  WriteWallUnitsProposal(catalog.series, column_uses, out);
+}
+
+}  // namespace
+
+std::string InitUsage() {
+  return R"(usage: plateau init DIR_OR_GLOB... [--relative R] [--confidence C] > run.yaml
+
+Reads the headers of the probe files under the folders or matched by the globs (quote them:
+'output/*/*/*') and writes a commented starter config to stdout: one source per series (a solver
+function's file, its restart segments in start-time folders such as output/probes/0/U and
+output/probes/2000/U taken as one), a mean statistic per data column, each with a relative target
+R (default 0.01) at confidence C (default 0.95); a profile for a line of probes; a wall-units
+proposal where a wall shear stress is found. Files that are not time series (logs, binary files,
+tables of text) are left out, each with its reason on stderr.
+)";
+}
+
+std::string ValidateUsage() {
+  return R"(usage: plateau validate CONFIG
+
+Checks a config the way plateau watch would, without starting anything: every problem is listed as
+FILE:LINE:COLUMN. Exit status 0 valid, 2 not.
+)";
+}
+
+int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  std::vector<std::string> patterns;
+  double relative = 0.01;
+  double confidence = 0.95;
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    if (a == "--help" || a == "-h") {
+      out << InitUsage();
+      return 0;
+    }
+    if (a == "--relative" || a == "--confidence") {
+      const auto v = i + 1 < args.size() ? Fraction(args[++i]) : std::nullopt;
+      if (!v) {
+        err << "plateau init: " << a << " takes a fraction between 0 and 1\n";
+        return 2;
+      }
+      (a == "--relative" ? relative : confidence) = *v;
+    } else if (!a.empty() && a[0] == '-') {
+      err << "plateau init: unknown option " << a << " (see plateau init --help)\n";
+      return 2;
+    } else {
+      patterns.push_back(a);
+    }
+  }
+  if (patterns.empty()) {
+    err << "plateau init: no probe files given (see plateau init --help)\n";
+    return 2;
+  }
+  const SeriesCatalog catalog = CatalogSeries(patterns);
+  for (const LeftOutFile& f : catalog.left_out) {
+    err << "plateau init: left out " << f.path << ": " << f.reason << "\n";
+  }
+  for (const std::string& n : catalog.notes) err << "plateau init: note: " << n << "\n";
+  if (catalog.series.empty()) {
+    err << "plateau init: no probe file with data matched";
+    for (const std::string& p : patterns) err << " " << p;
+    err << "\n";
+    return 2;
+  }
+  WriteConfig(catalog, patterns, relative, confidence, out);
+  return 0;
+}
+
+int RunValidateCommand(const std::vector<std::string>& args, std::ostream& out,
+                       std::ostream& err) {
+  if (args.size() != 1 || args[0] == "--help" || args[0] == "-h") {
+    (args.size() == 1 ? out : err) << ValidateUsage();
+    return args.size() == 1 ? 0 : 2;
+  }
+  std::vector<ConfigError> errors;
+  const std::optional<RunConfig> config = LoadRunConfig(args[0], &errors);
+  if (!config) {
+    for (const ConfigError& e : errors) err << e.ToString() << "\n";
+    err << args[0] << ": " << errors.size() << (errors.size() == 1 ? " problem" : " problems")
+        << "\n";
+    return 2;
+  }
+  out << args[0] << ": valid: run '" << config->run_name << "', " << config->sources.size()
+      << (config->sources.size() == 1 ? " source, " : " sources, ")
+      << config->statistics.size() << " statistics, store " << config->store_path << "\n";
+  for (const SourceConfig& s : config->sources) {
+    out << "  source '" << s.name << "': " << Expand(s.files).size() << " files match "
+        << s.files << " now\n";
+  }
+  return 0;
+}
+
+}  // namespace plateau

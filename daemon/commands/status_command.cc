@@ -1,0 +1,153 @@
+#include "daemon/commands/status_command.h"
+
+#include <memory>
+#include <optional>
+
+#include "daemon/presentation/json_value.h"
+#include "daemon/serving/query_server.h"
+#include "daemon/commands/run_locator.h"
+#include "daemon/presentation/status_report.h"
+#include "daemon/runtime/store_lock.h"
+#include "daemon/runtime/wall_clock.h"
+#include "store/run_store.h"
+
+namespace plateau {
+namespace {
+
+constexpr double kAskSeconds = 2.0;
+
+struct Reading {
+  StatusContext context;
+  std::optional<LatestView> view;
+  std::string daemon_json;  // the document as the daemon sent it, when it answered
+  std::string error;        // set when there is nothing to show
+};
+
+// From the daemon when it answers on its socket (fresher: it knows what it has read since its last
+// evaluation), else from the store (the daemon may be dead; then the numbers say how old they are).
+Reading Read(const std::string& argument) {
+  Reading r;
+  const LocatedRun located = LocateRun(argument);
+  if (located.store_path.empty()) {
+    r.error = located.error;
+    return r;
+  }
+  r.context.now = WallSeconds();
+  if (const auto reply = AskDaemon(located.socket_path, "{\"request\":\"status\"}", kAskSeconds)) {
+    std::string ignored;
+    if (const auto document = JsonValue::Parse(*reply, &ignored)) {
+      r.view = LatestViewFromJson(*document, &r.context);
+      if (r.view) {
+        r.daemon_json = *reply;
+        return r;
+      }
+    }
+  }
+  r.context.store_path = located.store_path;
+  r.context.answered_by = "store";
+  Status status;
+  const std::unique_ptr<RunStore> store = RunStore::OpenForReading(located.store_path, &status);
+  if (!store) {
+    r.error = status.message();
+    return r;
+  }
+  r.view = store->ReadLatest(&status);
+  if (!status.ok()) {
+    r.error = status.message();
+  } else if (!r.view) {
+    r.error = "store " + located.store_path + " has no evaluation yet";
+  }
+  r.context.daemon_pid = StoreLock::HolderPid(located.store_path);
+  return r;
+}
+
+// Splits [PATH] and the flags a command knows; returns false on anything else.
+bool ParseArgs(const std::vector<std::string>& args, const std::string& command,
+               std::string* path, bool* json, std::string* stat, std::ostream& err) {
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    if (a == "--json" && json) {
+      *json = true;
+    } else if (a == "--stat" && stat && i + 1 < args.size()) {
+      *stat = args[++i];
+    } else if (!a.empty() && a[0] == '-') {
+      err << "plateau " << command << ": unknown option " << a << " (see plateau " << command
+          << " --help)\n";
+      return false;
+    } else if (path->empty()) {
+      *path = a;
+    } else {
+      err << "plateau " << command << ": one config, store or folder, please\n";
+      return false;
+    }
+  }
+  return true;
+}
+
+}  // namespace
+
+std::string StatusUsage() {
+  return R"(usage: plateau status [CONFIG|STORE|FOLDER] [--json]
+
+Every statistic as the daemon last evaluated it: value ± half-width, relative half-width against
+its target, tau, n_eff, warm-up cut, state and when its target was met. Asks the running daemon on
+its query socket, or reads the store when no daemon answers, so it works after the daemon stopped
+too (and then says how old the numbers are). Without an argument it looks in the current folder
+for plateau.db or a single config.
+)";
+}
+
+std::string CheckUsage() {
+  return R"(usage: plateau check [CONFIG|STORE|FOLDER] [--stat NAME]
+
+Stop or continue, as an exit status, with one line on stderr saying why:
+  0  every target is met: stop the solver
+  1  not yet: continue
+  2  cannot tell (no store, no evaluation yet, unreadable config, a statistic whose column is
+     missing)
+With --stat, the answer for one statistic only.
+
+  until plateau check run.yaml; do sleep 600; done
+)";
+}
+
+int RunStatusCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << StatusUsage();
+    return 0;
+  }
+  std::string path;
+  bool json = false;
+  if (!ParseArgs(args, "status", &path, &json, nullptr, err)) return 2;
+  const Reading r = Read(path);
+  if (!r.view) {
+    err << "plateau status: " << r.error << "\n";
+    return 2;
+  }
+  if (json) {
+    out << (r.daemon_json.empty() ? StatusJson(*r.view, r.context) : r.daemon_json) << "\n";
+  } else {
+    out << StatusTable(*r.view, r.context);
+  }
+  return 0;
+}
+
+int RunCheckCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
+    out << CheckUsage();
+    return 0;
+  }
+  std::string path;
+  std::string stat;
+  if (!ParseArgs(args, "check", &path, nullptr, &stat, err)) return 2;
+  const Reading r = Read(path);
+  if (!r.view) {
+    err << "plateau check: cannot tell: " << r.error << "\n";
+    return 2;
+  }
+  const CheckAnswer answer = Check(*r.view, r.context, stat);
+  err << "plateau check: " << answer.message << "\n";
+  return answer.exit_code;
+}
+
+}  // namespace plateau

@@ -1,0 +1,357 @@
+#include "daemon/presentation/status_report.h"
+
+#include <cmath>
+#include <cstdio>
+#include <limits>
+#include <set>
+
+#include "daemon/presentation/number_format.h"
+#include "daemon/presentation/json_writer.h"
+#include "daemon/presentation/text_table.h"
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+std::string StateWords(const std::string& state) {
+  std::string words = state;
+  for (char& c : words) c = c == '_' ? ' ' : c;
+  return words;
+}
+
+std::string TargetCell(const SnapshotRow& s) {
+  if (s.target_kind.empty()) return "-";
+  return s.target_kind == "relative" ? FormatPercent(s.target_value) : FormatValue(s.target_value);
+}
+
+std::string DaemonLine(const StatusContext& c, double age) {
+  if (c.daemon_pid > 0) return "the daemon is running (process " + std::to_string(c.daemon_pid) + ")";
+  if (c.daemon_pid < 0) return "the daemon is running";
+  return "the daemon is not running: these numbers are " + FormatDuration(age) + " old";
+}
+
+struct Tally {
+  int targets = 0;
+  int met = 0;
+  const SnapshotRow* first_unmet = nullptr;
+  const SnapshotRow* column_missing = nullptr;
+};
+
+bool IsGroup(const SnapshotRow& s) { return s.target_kind == "group"; }
+bool IsProfileSummary(const SnapshotRow& s) { return s.target_kind == "profile"; }
+
+// "300 time units (about 2.1 h, at 2026-12-02 10:15 UTC)", or "unknown".
+std::string Prediction(double simulated, double wall_seconds, double now) {
+  if (std::isnan(simulated)) return "unknown";
+  if (simulated == 0.0) return "reached";
+  char figure[32];
+  std::snprintf(figure, sizeof figure, "%.3g", simulated);
+  std::string text = std::string(figure) + " time units";
+  if (!std::isnan(wall_seconds)) {
+    text += " (about " + FormatDuration(wall_seconds) + ", at " +
+            FormatUtcTime(now + wall_seconds) + ")";
+  }
+  return text;
+}
+
+Tally Count(const LatestView& v) {
+  Tally t;
+  for (const SnapshotRow& s : v.statistics) {
+    if (s.state == "column_missing" && !t.column_missing) t.column_missing = &s;
+    if (s.target_kind.empty() || IsGroup(s) || IsProfileSummary(s)) continue;
+    ++t.targets;
+    if (s.state == "met") {
+      ++t.met;
+    } else if (!t.first_unmet) {
+      t.first_unmet = &s;
+    }
+  }
+  return t;
+}
+
+double NumberOr(const JsonValue* v) {
+  return v != nullptr && v->type() == JsonValue::Type::kNumber ? v->number() : kNaN;
+}
+
+std::string TextOr(const JsonValue* v) {
+  return v != nullptr && v->type() == JsonValue::Type::kString ? v->string() : "";
+}
+
+// One line per source: how its samples are weighted and the spread of their spacing. Read from
+// each statistic's weighting object (the first statistic of a source speaks for it).
+std::string WeightingLines(const LatestView& v) {
+  std::set<std::string> seen;
+  std::string out;
+  for (const SnapshotRow& s : v.statistics) {
+    std::string error;
+    const std::optional<JsonValue> d = JsonValue::Parse(s.json, &error);
+    if (!d || !d->is_object()) continue;
+    const JsonValue* weighting = d->Find("weighting");
+    const std::string source = TextOr(d->Find("source"));
+    if (weighting == nullptr || !weighting->is_object() || !seen.insert(source).second) continue;
+    out += "source " + source + ": samples " + TextOr(weighting->Find("description")) + "\n";
+  }
+  return out;
+}
+
+}  // namespace
+
+std::string StatusTable(const LatestView& v, const StatusContext& c) {
+  std::string out = "run '" + v.run_name + "': cycle " + std::to_string(v.cycle) + ", evaluated " +
+                    FormatDuration(c.now - v.wall_time) + " ago (" + FormatUtcTime(v.wall_time) +
+                    "); " + DaemonLine(c, c.now - v.wall_time) + "\n";
+  out += "newest sample: time " + FormatValue(v.last_sample_time) + ", read " +
+         FormatDuration(c.now - v.last_sample_wall_time) + " ago\n\n";
+  using A = TextTable::Align;
+  TextTable table({{"statistic", A::kLeft},
+                   {"value", A::kRight},
+                   {"± half-width", A::kRight},
+                   {"conf.", A::kRight},
+                   {"relative", A::kRight},
+                   {"target", A::kRight},
+                   {"τ [samples]", A::kRight},
+                   {"T_int [time]", A::kRight},
+                   {"n_eff", A::kRight},
+                   {"warm-up ends", A::kRight},
+                   {"state", A::kLeft},
+                   {"met at", A::kRight},
+                   {"time to target", A::kRight},
+                   {"vs reference", A::kLeft}});
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty()) continue;
+    char tau[32], neff[32];
+    std::snprintf(tau, sizeof tau, "%.3g", s.integrated_time);
+    std::snprintf(neff, sizeof neff, "%.0f", s.effective_samples);
+    const bool estimated = !std::isnan(s.half_width);
+    table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
+                  FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
+                  estimated ? tau : "-",
+                  estimated ? FormatValue(s.integral_time_scale) : "-", estimated ? neff : "-",
+                  FormatValue(s.warmup_end_time),
+                  StateWords(s.state), FormatValue(s.met_at_time),
+                  s.state == "met" || s.target_kind.empty()
+                      ? "-"
+                      : Prediction(s.remaining_time, s.remaining_wall, c.now),
+                  s.reference_verdict.empty() ? "-"
+                  : s.reference_verdict == "bias" ? "BIAS"
+                                                  : s.reference_verdict});
+  }
+  out += table.Render() + "\n";
+  out += WeightingLines(v);
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsGroup(s)) out += "group " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
+  }
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsProfileSummary(s)) {
+      out += "profile " + s.statistic + ": " + StateWords(s.state) + ", " + s.state_reason + "\n";
+    }
+  }
+  const Tally t = Count(v);
+  if (t.targets == 0) {
+    out += "no statistic has a target: nothing to stop on\n";
+  } else if (v.run_met) {
+    out += "every target is met (" + std::to_string(t.met) + " of " + std::to_string(t.targets) +
+           "): stop the solver\n";
+  } else {
+    out += std::to_string(t.met) + " of " + std::to_string(t.targets) + " targets met: continue; " +
+           (v.remaining_time == 0.0
+                ? std::string("every half-width is within its target, waiting for confirmations")
+            : std::isnan(v.remaining_time)
+                ? std::string("no prediction yet of when every target is met (a statistic "
+                              "drifts or has too few samples to extrapolate)")
+                : "every target is expected to be met after " +
+                      Prediction(v.remaining_time, v.remaining_wall, c.now)) +
+           "\n";
+  }
+  bool header = false;
+  for (const SnapshotRow& s : v.statistics) {
+    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty() || s.state == "met" ||
+        s.state == "monitored" || s.state_reason.empty()) {
+      continue;
+    }
+    if (!header) out += "\nnotes:\n";
+    header = true;
+    out += "  " + s.statistic + ": " + StateWords(s.state) + ": " + s.state_reason + "\n";
+  }
+  return out;
+}
+
+std::string StatusJson(const LatestView& v, const StatusContext& c) {
+  const Tally t = Count(v);
+  JsonWriter json;
+  json.BeginObject();
+  json.Field("run", v.run_name);
+  json.Field("store", c.store_path);
+  json.Field("answered_by", c.answered_by);
+  json.Field("cycle", v.cycle);
+  json.Field("evaluated_at", v.wall_time);
+  json.Field("age_seconds", c.now - v.wall_time);
+  json.Field("last_sample_time", v.last_sample_time);
+  json.Field("last_sample_read_at", v.last_sample_wall_time);
+  json.Field("last_sample_age_seconds", c.now - v.last_sample_wall_time);
+  json.Key("daemon");
+  json.BeginObject();
+  json.Field("running", c.daemon_pid != 0);
+  json.Key("pid");
+  if (c.daemon_pid > 0) {
+    json.Integer(c.daemon_pid);
+  } else {
+    json.Null();
+  }
+  json.EndObject();
+  json.Field("run_met", v.run_met);
+  json.Field("targets", t.targets);
+  json.Field("targets_met", t.met);
+  json.Key("time_to_target");
+  if (std::isnan(v.remaining_time)) {
+    json.Null();
+  } else {
+    json.BeginObject();
+    json.Field("simulated", v.remaining_time);
+    json.Field("wall_seconds", v.remaining_wall);
+    json.Field("expected_at", v.wall_time + v.remaining_wall);
+    json.EndObject();
+  }
+  json.Key("statistics");
+  json.BeginArray();
+  for (const SnapshotRow& s : v.statistics) json.Raw(s.json);
+  json.EndArray();
+  json.Key("files");
+  json.BeginArray();
+  for (const FileProgress& f : v.files) {
+    json.BeginObject();
+    json.Field("path", f.path);
+    json.Field("source", f.source);
+    json.Field("rows", f.rows);
+    json.Field("bad_lines", f.bad_lines);
+    json.Field("last_time", f.last_time);
+    json.Field("vanished", f.vanished);
+    json.EndObject();
+  }
+  json.EndArray();
+  json.EndObject();
+  return json.text();
+}
+
+std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* c) {
+  const JsonValue* statistics = d.Find("statistics");
+  if (!d.is_object() || statistics == nullptr || d.Find("cycle") == nullptr) return std::nullopt;
+  LatestView v;
+  v.run_name = TextOr(d.Find("run"));
+  v.cycle = static_cast<std::int64_t>(NumberOr(d.Find("cycle")));
+  v.wall_time = NumberOr(d.Find("evaluated_at"));
+  v.last_sample_time = NumberOr(d.Find("last_sample_time"));
+  v.last_sample_wall_time = NumberOr(d.Find("last_sample_read_at"));
+  const JsonValue* met = d.Find("run_met");
+  v.run_met = met != nullptr && met->boolean();
+  v.remaining_time = kNaN;
+  v.remaining_wall = kNaN;
+  if (const JsonValue* eta = d.Find("time_to_target"); eta && eta->is_object()) {
+    v.remaining_time = NumberOr(eta->Find("simulated"));
+    v.remaining_wall = NumberOr(eta->Find("wall_seconds"));
+  }
+  c->store_path = TextOr(d.Find("store"));
+  c->answered_by = TextOr(d.Find("answered_by"));
+  if (const JsonValue* daemon = d.Find("daemon")) {
+    const double pid = NumberOr(daemon->Find("pid"));
+    const JsonValue* running = daemon->Find("running");
+    c->daemon_pid = !std::isnan(pid) ? static_cast<long>(pid)
+                                     : (running != nullptr && running->boolean() ? -1 : 0);
+  }
+  for (const JsonValue& s : statistics->array()) {
+    SnapshotRow row;
+    JsonWriter whole;  // as the store keeps it, so that both views render alike
+    whole.Value(s);
+    row.json = whole.text();
+    row.statistic = TextOr(s.Find("name"));
+    if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
+    // A profile's summaries: per quantity (with "points") and its momentum balance.
+    if (s.Find("points") != nullptr || s.Find("departure") != nullptr) row.target_kind = "profile";
+    if (s.Find("point") != nullptr) row.profile = TextOr(s.Find("profile"));
+    row.state = TextOr(s.Find("state"));
+    row.state_reason = TextOr(s.Find("state_reason"));
+    row.value = NumberOr(s.Find("mean"));
+    row.half_width = NumberOr(s.Find("half_width"));
+    row.relative_half_width = NumberOr(s.Find("relative_half_width"));
+    row.integrated_time = NumberOr(s.Find("integrated_time"));
+    row.effective_samples = NumberOr(s.Find("effective_samples"));
+    row.integral_time_scale = NumberOr(s.Find("integral_time_scale"));
+    row.averaging_time = NumberOr(s.Find("averaging_time"));
+    row.warmup_end_time = NumberOr(s.Find("warmup_end_time"));
+    row.samples_used = static_cast<std::int64_t>(NumberOr(s.Find("samples_used")));
+    row.last_time = NumberOr(s.Find("last_time"));
+    row.confidence = NumberOr(s.Find("confidence"));
+    row.remaining_time = kNaN;
+    row.remaining_wall = kNaN;
+    if (const JsonValue* eta = s.Find("time_to_target"); eta && eta->is_object()) {
+      row.remaining_time = NumberOr(eta->Find("simulated"));
+      row.remaining_wall = NumberOr(eta->Find("wall_seconds"));
+    }
+    if (const JsonValue* reference = s.Find("reference"); reference && reference->is_object()) {
+      row.reference_verdict = TextOr(reference->Find("verdict"));
+    }
+    if (const JsonValue* target = s.Find("target"); target && target->is_object()) {
+      row.target_kind = TextOr(target->Find("kind"));
+      row.target_value = NumberOr(target->Find("value"));
+    }
+    row.target_half_width = NumberOr(s.Find("target_half_width"));
+    const JsonValue* met_at = s.Find("met_at");
+    row.met_at_time = met_at && met_at->is_object() ? NumberOr(met_at->Find("simulated_time")) : kNaN;
+    row.met_at_wall = met_at && met_at->is_object() ? NumberOr(met_at->Find("wall_time")) : kNaN;
+    v.statistics.push_back(std::move(row));
+  }
+  if (const JsonValue* files = d.Find("files")) {
+    for (const JsonValue& f : files->array()) {
+      FileProgress p;
+      p.path = TextOr(f.Find("path"));
+      p.source = TextOr(f.Find("source"));
+      p.rows = static_cast<std::int64_t>(NumberOr(f.Find("rows")));
+      p.bad_lines = static_cast<std::int64_t>(NumberOr(f.Find("bad_lines")));
+      p.last_time = NumberOr(f.Find("last_time"));
+      const JsonValue* vanished = f.Find("vanished");
+      p.vanished = vanished != nullptr && vanished->boolean();
+      v.files.push_back(std::move(p));
+    }
+  }
+  return v;
+}
+
+CheckAnswer Check(const LatestView& v, const StatusContext& c, const std::string& stat) {
+  const std::string when = " (cycle " + std::to_string(v.cycle) + ", evaluated " +
+                           FormatDuration(c.now - v.wall_time) + " ago" +
+                           (c.daemon_pid == 0 ? "; the daemon is not running" : "") + ")";
+  if (!stat.empty()) {
+    for (const SnapshotRow& s : v.statistics) {
+      if (s.statistic != stat) continue;
+      if (s.state == "column_missing" || s.target_kind.empty()) {
+        return {2, "cannot tell: " + stat + " " +
+                       (s.target_kind.empty() ? "has no target" : s.state_reason) + when};
+      }
+      if (s.state == "met") {
+        return {0, "stop: " + stat + " met its target at time " + FormatValue(s.met_at_time) + when};
+      }
+      return {1, "continue: " + stat + " is " + StateWords(s.state) + ": " + s.state_reason + when};
+    }
+    return {2, "cannot tell: no statistic named '" + stat + "'"};
+  }
+  const Tally t = Count(v);
+  if (t.column_missing) {
+    return {2, "cannot tell: " + t.column_missing->statistic + ": " +
+                   t.column_missing->state_reason + when};
+  }
+  if (t.targets == 0) return {2, "cannot tell: no statistic has a target" + when};
+  if (v.run_met) {
+    return {0, "stop: every target is met (" + std::to_string(t.met) + " of " +
+                   std::to_string(t.targets) + ")" + when};
+  }
+  std::string message = "continue: " + std::to_string(t.met) + " of " +
+                        std::to_string(t.targets) + " targets met";
+  if (t.first_unmet) {
+    message += "; " + t.first_unmet->statistic + " is " + StateWords(t.first_unmet->state) + ": " +
+               t.first_unmet->state_reason;
+  }
+  return {1, message + when};
+}
+
+}  // namespace plateau
