@@ -12,6 +12,7 @@
 
 #include "config/config_loader.h"
 #include "daemon/ingest/series_catalog.h"
+#include "daemon/presentation/number_format.h"
 
 namespace plateau {
 namespace {
@@ -219,8 +220,7 @@ void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& p
       const double mean = first.mean[c];
       const double deviation = first.deviation[c];
       if (deviation > 0.0 && std::fabs(mean) < deviation) {
-        char absolute[32];
-        std::snprintf(absolute, sizeof absolute, "%.3g", relative * deviation);
+        const std::string absolute = PrintfNumber("%.3g", relative * deviation);
         out << "    # mean about zero in the first rows (" << mean << ", standard deviation "
             << deviation << "):\n    # an absolute target of " << relative
             << " times the standard deviation\n"

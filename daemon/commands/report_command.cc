@@ -183,10 +183,7 @@ std::string CsvField(const std::string& text) {
 }
 
 std::string CsvNumber(double v) {
-  if (std::isnan(v)) return "";
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.17g", v);
-  return buffer;
+  return std::isnan(v) ? "" : PrintfNumber("%.17g", v);
 }
 
 }  // namespace

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <fstream>
 #include <limits>
 #include <sstream>
@@ -19,11 +18,7 @@ namespace {
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 // Three significant digits: positions and departures in sentences.
-std::string Short(double value) {
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.3g", value);
-  return buffer;
-}
+std::string Short(double value) { return PrintfNumber("%.3g", value); }
 
 SnapshotRow EmptyRow(const std::string& name, const std::string& kind) {
   SnapshotRow row;

@@ -1,7 +1,6 @@
 #include "daemon/presentation/status_report.h"
 
 #include <cmath>
-#include <cstdio>
 #include <limits>
 #include <set>
 
@@ -45,9 +44,7 @@ bool IsProfileSummary(const SnapshotRow& s) { return s.target_kind == "profile";
 std::string Prediction(double simulated, double wall_seconds, double now) {
   if (std::isnan(simulated)) return "unknown";
   if (simulated == 0.0) return "reached";
-  char figure[32];
-  std::snprintf(figure, sizeof figure, "%.3g", simulated);
-  std::string text = std::string(figure) + " time units";
+  std::string text = PrintfNumber("%.3g", simulated) + " time units";
   if (!std::isnan(wall_seconds)) {
     text += " (about " + FormatDuration(wall_seconds) + ", at " +
             FormatUtcTime(now + wall_seconds) + ")";
@@ -120,9 +117,8 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                    {"vs reference", A::kLeft}});
   for (const SnapshotRow& s : v.statistics) {
     if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty()) continue;
-    char tau[32], neff[32];
-    std::snprintf(tau, sizeof tau, "%.3g", s.integrated_time);
-    std::snprintf(neff, sizeof neff, "%.0f", s.effective_samples);
+    const std::string tau = PrintfNumber("%.3g", s.integrated_time);
+    const std::string neff = PrintfNumber("%.0f", s.effective_samples);
     const bool estimated = !std::isnan(s.half_width);
     table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
                   FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),

@@ -2,8 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <limits>
+
+#include "daemon/presentation/number_format.h"
 
 namespace plateau {
 namespace {
@@ -12,17 +13,9 @@ namespace {
 constexpr double kLeft = 64, kRight = 16, kTop = 44, kBottom = 44;
 constexpr double kLegendY = 34, kCharWidth = 6.2;
 
-std::string Number(double v) {
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.1f", v);
-  return buffer;
-}
+std::string Number(double v) { return PrintfNumber("%.1f", v); }
 
-std::string Tick(double v) {
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%g", v);
-  return buffer;
-}
+std::string Tick(double v) { return PrintfNumber("%g", v); }
 
 // Ticks over [low, high]: steps of 1, 2 or 5 times a power of ten, or decades on a log axis.
 std::vector<double> Ticks(double low, double high, bool log) {

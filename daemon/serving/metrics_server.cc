@@ -5,9 +5,9 @@
 
 #include <chrono>
 #include <cmath>
-#include <cstdio>
 
 #include "daemon/runtime/wall_clock.h"
+#include "daemon/presentation/number_format.h"
 
 namespace plateau {
 namespace {
@@ -37,9 +37,7 @@ std::string Label(const std::string& value) {
 std::string Number(double value) {
   if (std::isnan(value)) return "NaN";
   if (std::isinf(value)) return value > 0 ? "+Inf" : "-Inf";
-  char buffer[32];
-  std::snprintf(buffer, sizeof buffer, "%.17g", value);
-  return buffer;
+  return PrintfNumber("%.17g", value);
 }
 
 class Family {
