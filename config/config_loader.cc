@@ -111,7 +111,7 @@ class Loader {
   std::optional<EmailConfig> LoadEmail(const YAML::Node& node);
   std::optional<CommandConfig> LoadCommand(const YAML::Node& node);
   void LoadMetrics(const YAML::Node& node, RunConfig& c);
-  std::optional<GroupConfig> LoadGroup(const YAML::Node& node, const RunConfig& c);
+  std::optional<StatisticGroup> LoadGroup(const YAML::Node& node, const RunConfig& c);
   std::optional<WallUnitsConfig> LoadWallUnits(const YAML::Node& node, const RunConfig& c);
   // A profile, and the per-point statistics it expands into (appended to c.statistics).
   std::optional<ProfileConfig> LoadProfile(const YAML::Node& node, RunConfig& c);
@@ -554,12 +554,14 @@ void Loader::LoadAlerts(const YAML::Node& node, AlertsConfig& a) {
             {"events", "stall_after", "bad_lines_per_minute", "max_attempts", "email", "command",
              "stop_file", "syslog"},
             "alerts");
-  const std::vector<std::string> kinds{"met",   "lost",    "run_met",  "run_lost",
-                                       "drift", "stalled", "resumed", "bad_lines"};
   if (node["events"]) {
-    a.events = TextList(node["events"], "events");
-    for (const std::string& e : a.events) {
-      if (std::find(kinds.begin(), kinds.end(), e) == kinds.end()) {
+    std::vector<std::string> kinds;
+    for (const EventKind k : AllEventKinds()) kinds.emplace_back(EventKindName(k));
+    a.events.clear();
+    for (const std::string& e : TextList(node["events"], "events")) {
+      if (const std::optional<EventKind> kind = EventKindFromName(e)) {
+        a.events.push_back(*kind);
+      } else {
         Error(node["events"], "event '" + e + "' is not known; expected " + Join(kinds));
       }
     }
@@ -589,13 +591,13 @@ void Loader::LoadAlerts(const YAML::Node& node, AlertsConfig& a) {
   if (node["syslog"]) Flag(node["syslog"], "syslog", &a.syslog);
 }
 
-std::optional<GroupConfig> Loader::LoadGroup(const YAML::Node& node, const RunConfig& c) {
+std::optional<StatisticGroup> Loader::LoadGroup(const YAML::Node& node, const RunConfig& c) {
   if (!node.IsMap()) {
     Error(node, "a group must be a map with name and members");
     return std::nullopt;
   }
   CheckKeys(node, {"name", "members", "bonferroni", "confidence", "required"}, "a group");
-  GroupConfig g;
+  StatisticGroup g;
   g.confidence = c.evaluation.confidence;
   bool ok = true;
   if (!node["name"] || !node["members"]) {
@@ -630,7 +632,7 @@ std::optional<GroupConfig> Loader::LoadGroup(const YAML::Node& node, const RunCo
     ok = ok && v.has_value();
     if (v) g.confidence = *v;
   }
-  return ok ? std::optional<GroupConfig>(g) : std::nullopt;
+  return ok ? std::optional<StatisticGroup>(g) : std::nullopt;
 }
 
 std::optional<WallUnitsConfig> Loader::LoadWallUnits(const YAML::Node& node, const RunConfig& c) {

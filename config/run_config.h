@@ -9,6 +9,8 @@
 
 #include "core/convergence_tracker.h"
 #include "core/evaluation_options.h"
+#include "core/event_kind.h"
+#include "core/run_verdict.h"
 #include "core/source_statistics.h"
 #include "core/statistic_request.h"
 
@@ -68,17 +70,6 @@ struct ProfileConfig {
   bool momentum_balance = false;
 };
 
-// Statistics that stop jointly: a group is met when all its members are. With Bonferroni each
-// member is judged at confidence 1 - (1 - confidence) / members, so that the chance of any member's
-// interval missing is at most 1 - confidence.
-struct GroupConfig {
-  std::string name;
-  std::vector<std::string> members;
-  bool bonferroni = false;
-  double confidence = 0.95;
-  bool required = true;  // the run waits for it
-};
-
 // SMTP delivery. The password is never in the config: it is read from a file or an environment
 // variable named here, and never logged.
 struct EmailConfig {
@@ -102,8 +93,9 @@ struct CommandConfig {
 
 struct AlertsConfig {
   // Event kinds that alert: met, lost, run_met, run_lost, drift, stalled, resumed, bad_lines.
-  std::vector<std::string> events{"met", "lost", "run_met", "run_lost", "drift", "stalled",
-                                  "bad_lines"};
+  std::vector<EventKind> events{EventKind::kMet,     EventKind::kLost,    EventKind::kRunMet,
+                                EventKind::kRunLost, EventKind::kDrift,   EventKind::kStalled,
+                                EventKind::kBadLines};
   double stall_after = 1800.0;         // seconds without a new sample before "stalled"
   double bad_lines_per_minute = 60.0;  // above this rate over an evaluation interval: "bad_lines"
   int max_attempts = 8;                // per delivery, with doubling back-off from 10 s
@@ -125,7 +117,7 @@ struct RunConfig {
   std::size_t blocks = 4096;
   std::vector<SourceConfig> sources;
   std::vector<StatisticConfig> statistics;
-  std::vector<GroupConfig> groups;
+  std::vector<StatisticGroup> groups;
   std::optional<WallUnitsConfig> wall_units;
   std::vector<ProfileConfig> profiles;  // their statistics are in `statistics` too
   AlertsConfig alerts;

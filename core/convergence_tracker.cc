@@ -106,7 +106,7 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
       met_ = true;
       met_at_time_ = estimate.last_time;
       met_at_wall_ = wall_time;
-      events.push_back({ConvergenceEvent::Kind::kMet, statistic_, estimate.last_time, wall_time,
+      events.push_back({EventKind::kMet, statistic_, estimate.last_time, wall_time,
                         statistic_ + " met its target: " + MessageNumber(estimate.value) + " ± " +
                             MessageNumber(estimate.half_width) + " at " +
                             Percent(estimate.confidence) + " confidence"});
@@ -115,7 +115,7 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
     consecutive_ = 0;
     if (met_) {
       met_ = false;
-      events.push_back({ConvergenceEvent::Kind::kLost, statistic_, estimate.last_time, wall_time,
+      events.push_back({EventKind::kLost, statistic_, estimate.last_time, wall_time,
                         statistic_ + " no longer meets its target: " + reason});
     }
   }
@@ -130,7 +130,7 @@ std::vector<ConvergenceEvent> ConvergenceTracker::Update(const StatisticEstimate
     }
     steady_samples_ = std::max(steady_samples_, estimate.samples_total);
     if (estimate.drift_detected && !drift_reported_ && steady_before) {
-      events.push_back({ConvergenceEvent::Kind::kDrift, statistic_, estimate.last_time, wall_time,
+      events.push_back({EventKind::kDrift, statistic_, estimate.last_time, wall_time,
                         statistic_ + " drifts: the mean of the first 10 % differs from the last "
                                      "50 % (Geweke z = " +
                             MessageNumber(estimate.drift.z) + ", p = " + MessageNumber(estimate.drift.p_value) +

@@ -10,6 +10,7 @@
 #include <string_view>
 #include <vector>
 
+#include "core/event_kind.h"
 #include "core/statistic_estimate.h"
 
 namespace plateau {
@@ -43,8 +44,7 @@ enum class ConvergenceState {
 std::string_view ConvergenceStateName(ConvergenceState state);
 
 struct ConvergenceEvent {
-  enum class Kind { kMet, kLost, kDrift };
-  Kind kind;
+  EventKind kind;  // kMet, kLost or kDrift
   std::string statistic;
   double simulated_time;  // last sample time at the evaluation
   double wall_time;       // seconds since the epoch

@@ -360,7 +360,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       event->Bind(2, e.wall_time);
       event->Bind(3, e.simulated_time);
       event->Bind(4, e.statistic);
-      event->Bind(5, e.kind);
+      event->Bind(5, std::string(EventKindName(e.kind)));
       event->Bind(6, e.message);
       event->Bind(7, e.value);
       event->Bind(8, e.half_width);
@@ -571,7 +571,8 @@ EventRow EventAt(const SqliteStatement& q, int first) {
   e.wall_time = q.ColumnDouble(first + 2);
   e.simulated_time = q.ColumnDouble(first + 3);
   e.statistic = q.ColumnText(first + 4);
-  e.kind = q.ColumnText(first + 5);
+  // The kinds a store holds are those this build writes (the schema version guards the rest).
+  e.kind = EventKindFromName(q.ColumnText(first + 5)).value_or(EventKind::kMet);
   e.message = q.ColumnText(first + 6);
   e.value = q.ColumnDouble(first + 7);
   e.half_width = q.ColumnDouble(first + 8);

@@ -13,6 +13,7 @@
 #include <unordered_map>
 #include <vector>
 
+#include "core/event_kind.h"
 #include "core/status.h"
 #include "store/sqlite_connection.h"
 
@@ -72,7 +73,7 @@ struct EventRow {
   double wall_time = 0.0;
   double simulated_time = 0.0;
   std::string statistic;  // empty for a run-wide event
-  std::string kind;       // met, lost, run_met, run_lost, drift, stalled, resumed, bad_lines
+  EventKind kind = EventKind::kMet;
   std::string message;
   // What an alert says beyond the message (NaN or empty when they do not apply).
   double value = 0.0;

@@ -1,38 +1,13 @@
 #include "daemon/alerts/alert_dispatcher.h"
 
-#include <fcntl.h>
-#include <unistd.h>
-
 #include <algorithm>
-#include <cerrno>
 #include <cmath>
-#include <cstring>
+#include <map>
 
-#include "daemon/alerts/alert_message.h"
-#include "daemon/alerts/command_runner.h"
-#include "daemon/alerts/smtp_client.h"
+#include "daemon/alerts/alert_channels.h"
 #include "daemon/runtime/wall_clock.h"
 
 namespace plateau {
-namespace {
-
-// Writes the stop file (a solver that polls for it stops cleanly) with the event's message.
-Status WriteStopFile(const std::string& path, const std::string& message) {
-  const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_TRUNC | O_CLOEXEC, 0644);
-  if (fd < 0) return Status::Error("cannot create the stop file " + path + ": " + std::strerror(errno));
-  const std::string text = message + "\n";
-  const bool written = ::write(fd, text.data(), text.size()) == static_cast<ssize_t>(text.size());
-  ::close(fd);
-  return written ? Status::Ok() : Status::Error("cannot write the stop file " + path);
-}
-
-std::string FirstLines(const std::string& output) {
-  std::string shown = output.substr(0, 500);
-  for (char& c : shown) c = c == '\n' ? '|' : c;
-  return shown;
-}
-
-}  // namespace
 
 AlertDispatcher::AlertDispatcher(boost::asio::io_context& io, RunMonitor& monitor,
                                  std::shared_ptr<spdlog::logger> log)
@@ -60,46 +35,35 @@ void AlertDispatcher::DispatchDue() {
     log_->error("cannot read the pending alerts: {}", status.message());
     return;
   }
-  std::vector<DeliveryRow> mail;
+  std::map<AlertChannelKind, std::vector<DeliveryRow>> digests;
   for (const DeliveryRow& d : due) {
     if (!in_flight_.insert({d.event.id, d.channel}).second) continue;
-    if (d.channel == "email" && monitor_.config().alerts.email) {
-      mail.push_back(d);
+    const std::optional<AlertChannelKind> kind = AlertChannelKindFromName(d.channel);
+    const std::unique_ptr<AlertChannel> channel =
+        kind ? MakeAlertChannel(*kind, io_, monitor_.config(), log_) : nullptr;
+    if (!channel) {
+      Finish(d, Status::Error("the " + d.channel + " channel is no longer configured"));
+    } else if (channel->sends_digest()) {
+      digests[*kind].push_back(d);
     } else {
-      Deliver(d);
+      channel->Deliver({d.event}, [this, d](const Status& result) { Finish(d, result); });
     }
   }
-  if (!mail.empty()) DeliverMail(std::move(mail));
-}
-
-// Every e-mail due now goes in one message: a cycle that meets a profile's forty targets should
-// not send forty messages. Each delivery is recorded on its own, with the one result.
-void AlertDispatcher::DeliverMail(std::vector<DeliveryRow> due) {
-  std::vector<EventRow> events;
-  events.reserve(due.size());
-  for (const DeliveryRow& d : due) events.push_back(d.event);
-  SendAlertMail(io_, *monitor_.config().alerts.email, ComposeDigest(events, monitor_.config()),
-                [this, due = std::move(due)](const Status& result) {
-                  for (const DeliveryRow& d : due) Finish(d, result);
-                });
-}
-
-void AlertDispatcher::Deliver(const DeliveryRow& d) {
-  const RunConfig& config = monitor_.config();
-  const AlertMessage message = ComposeAlert(d.event, config);
-  if (d.channel == "command" && config.alerts.command) {
-    RunAlertCommand(io_, *config.alerts.command, message.environment,
-                    [this, d](const CommandResult& result) {
-                      log_->info("alert command for event {} ({}): {}{}", d.event.id, d.event.kind,
-                                 result.status.ok() ? "exit status 0" : result.status.message(),
-                                 result.output.empty() ? "" : "; output: " + FirstLines(result.output));
-                      Finish(d, result.status);
-                    });
-  } else if (d.channel == "stop_file" && !config.alerts.stop_file.empty()) {
-    Finish(d, WriteStopFile(config.alerts.stop_file, d.event.message));
-  } else {
-    Finish(d, Status::Error("the " + d.channel + " channel is no longer configured"));
+  for (auto& [kind, deliveries] : digests) {
+    std::vector<EventRow> events;
+    for (const DeliveryRow& d : deliveries) events.push_back(d.event);
+    // Each delivery is recorded on its own, with the one result.
+    MakeAlertChannel(kind, io_, monitor_.config(), log_)
+        ->Deliver(events, [this, deliveries = std::move(deliveries)](const Status& result) {
+          for (const DeliveryRow& d : deliveries) Finish(d, result);
+        });
   }
+}
+
+void AlertDispatcher::Announce(const std::vector<EventRow>& events) {
+  if (events.empty()) return;
+  MakeAlertChannel(AlertChannelKind::kLog, io_, monitor_.config(), log_)
+      ->Deliver(events, [](const Status&) {});
 }
 
 void AlertDispatcher::Finish(const DeliveryRow& d, const Status& result) {

@@ -1,5 +1,6 @@
-// Delivers alerts: every delivery the store holds as due (one per event and channel) is started on
-// the event loop without blocking it (the e-mails due at one moment as one message); each outcome is recorded in the store, so that a restarted
+// Delivers alerts: every delivery the store holds as due (one per event and channel) is handed to
+// its channel (alert_channel.h) on the event loop without blocking it (the e-mails due at one
+// moment as one message); each outcome is recorded in the store, so that a restarted
 // daemon neither loses a pending alert nor sends a delivered one again; a failure is retried with
 // doubling back-off and given up after max_attempts. Single-threaded: the loop owns it.
 #ifndef PLATEAU_DAEMON_ALERTS_ALERT_DISPATCHER_H_
@@ -32,10 +33,11 @@ class AlertDispatcher {
   void Start();
   // Starts every due delivery that is not already on its way.
   void DispatchDue();
+  // Hands the events a cycle has just recorded to the channels that need no delivery record (the
+  // log).
+  void Announce(const std::vector<EventRow>& events);
 
  private:
-  void Deliver(const DeliveryRow& delivery);
-  void DeliverMail(std::vector<DeliveryRow> due);  // all due e-mails as one message
   void Finish(const DeliveryRow& delivery, const Status& result);
   void ScheduleCheck();
 

@@ -10,25 +10,35 @@ namespace plateau {
 namespace {
 
 std::string Headline(const EventRow& e, const RunConfig& c) {
-  if (e.kind == "run_met") return c.run_name + ": every target met, the solver can stop";
-  if (e.kind == "run_lost") return c.run_name + ": targets no longer all met";
-  if (e.kind == "met") return c.run_name + ": " + e.statistic + " met its target";
-  if (e.kind == "lost") return c.run_name + ": " + e.statistic + " lost its target";
-  if (e.kind == "drift") return c.run_name + ": " + e.statistic + " drifts";
-  if (e.kind == "stalled") return c.run_name + ": no new samples";
-  if (e.kind == "resumed") return c.run_name + ": samples arrive again";
-  if (e.kind == "bad_lines") return c.run_name + ": many bad lines in the probe files";
-  return c.run_name + ": " + e.kind;
+  switch (e.kind) {
+    case EventKind::kRunMet:
+      return c.run_name + ": every target met, the solver can stop";
+    case EventKind::kRunLost:
+      return c.run_name + ": targets no longer all met";
+    case EventKind::kMet:
+      return c.run_name + ": " + e.statistic + " met its target";
+    case EventKind::kLost:
+      return c.run_name + ": " + e.statistic + " lost its target";
+    case EventKind::kDrift:
+      return c.run_name + ": " + e.statistic + " drifts";
+    case EventKind::kStalled:
+      return c.run_name + ": no new samples";
+    case EventKind::kResumed:
+      return c.run_name + ": samples arrive again";
+    case EventKind::kBadLines:
+      return c.run_name + ": many bad lines in the probe files";
+  }
+  return c.run_name + ": " + std::string(EventKindName(e.kind));
 }
 
 // Lower is more important: what a person must act on comes first.
-int Importance(const std::string& kind) {
-  static const char* const kOrder[] = {"run_met", "run_lost", "stalled", "bad_lines",
-                                       "lost",    "drift",    "resumed", "met"};
-  for (int i = 0; i < static_cast<int>(std::size(kOrder)); ++i) {
-    if (kind == kOrder[i]) return i;
-  }
-  return static_cast<int>(std::size(kOrder));
+int Importance(EventKind kind) {
+  static constexpr EventKind kOrder[] = {EventKind::kRunMet, EventKind::kRunLost,
+                                         EventKind::kStalled, EventKind::kBadLines,
+                                         EventKind::kLost, EventKind::kDrift,
+                                         EventKind::kResumed, EventKind::kMet};
+  const auto at = std::find(std::begin(kOrder), std::end(kOrder), kind);
+  return static_cast<int>(at - std::begin(kOrder));
 }
 
 }  // namespace
@@ -69,7 +79,7 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
     b += "Followed by plateau for " + FormatDuration(e.elapsed_wall) + " since its first sample.\n";
   }
   const double remaining = c.planned_end_time - e.simulated_time;
-  if ((e.kind == "run_met" || e.kind == "met") && std::isfinite(remaining) && remaining > 0 &&
+  if ((e.kind == EventKind::kRunMet || e.kind == EventKind::kMet) && std::isfinite(remaining) && remaining > 0 &&
       e.progress_rate > 0 && std::isfinite(c.cores)) {
     const double hours = remaining / e.progress_rate;
     // Whole core-hours, or tenths below ten: a short run must not read "saves about 0".
@@ -81,7 +91,7 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
          " cores: stopping now saves about " + FormatValue(shown) +
          " core-hours.\n";
   }
-  if (e.kind != "run_met" && std::isfinite(e.remaining_time) && e.remaining_time > 0) {
+  if (e.kind != EventKind::kRunMet && std::isfinite(e.remaining_time) && e.remaining_time > 0) {
     b += "Every target is expected to be met after " + FormatValue(e.remaining_time) +
          " more time units" +
          (e.progress_rate > 0
@@ -95,7 +105,7 @@ AlertMessage ComposeAlert(const EventRow& e, const RunConfig& c) {
   m.environment = {
       {"PLATEAU_RUN", c.run_name},
       {"PLATEAU_STORE", c.store_path},
-      {"PLATEAU_EVENT", e.kind},
+      {"PLATEAU_EVENT", std::string(EventKindName(e.kind))},
       {"PLATEAU_EVENT_ID", std::to_string(e.id)},
       {"PLATEAU_STATISTIC", e.statistic},
       {"PLATEAU_MESSAGE", e.message},

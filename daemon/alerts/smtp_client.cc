@@ -2,9 +2,11 @@
 
 #include <boost/asio/ssl.hpp>
 
+#include "daemon/alerts/smtp_grammar.h"
+#include "daemon/runtime/wall_clock.h"
+
 #include <chrono>
 #include <cstdlib>
-#include <ctime>
 #include <fstream>
 #include <memory>
 #include <optional>
@@ -20,57 +22,6 @@ using asio::ip::tcp;
 struct SmtpError : std::runtime_error {
   using std::runtime_error::runtime_error;
 };
-
-std::string Base64(const std::string& bytes) {
-  static const char* alphabet =
-      "ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/";
-  std::string out;
-  std::size_t i = 0;
-  for (; i + 2 < bytes.size(); i += 3) {
-    const unsigned n = (static_cast<unsigned char>(bytes[i]) << 16) |
-                       (static_cast<unsigned char>(bytes[i + 1]) << 8) |
-                       static_cast<unsigned char>(bytes[i + 2]);
-    out += {alphabet[n >> 18], alphabet[(n >> 12) & 63], alphabet[(n >> 6) & 63], alphabet[n & 63]};
-  }
-  if (i + 1 == bytes.size()) {
-    const unsigned n = static_cast<unsigned char>(bytes[i]) << 16;
-    out += {alphabet[n >> 18], alphabet[(n >> 12) & 63], '=', '='};
-  } else if (i + 2 == bytes.size()) {
-    const unsigned n = (static_cast<unsigned char>(bytes[i]) << 16) |
-                       (static_cast<unsigned char>(bytes[i + 1]) << 8);
-    out += {alphabet[n >> 18], alphabet[(n >> 12) & 63], alphabet[(n >> 6) & 63], '='};
-  }
-  return out;
-}
-
-std::string RfcDate() {
-  const std::time_t now = std::time(nullptr);
-  std::tm tm{};
-  gmtime_r(&now, &tm);
-  char buffer[64];
-  std::strftime(buffer, sizeof buffer, "%a, %d %b %Y %H:%M:%S +0000", &tm);
-  return buffer;
-}
-
-// The message in Internet Message Format (RFC 5322), CRLF line ends, dot-stuffed for DATA.
-std::string Letter(const EmailConfig& config, const AlertMessage& m) {
-  std::string to;
-  for (const std::string& r : config.to) to += (to.empty() ? "" : ", ") + r;
-  std::string text = "From: " + config.from + "\r\nTo: " + to + "\r\nSubject: " + m.subject +
-                     "\r\nDate: " + RfcDate() +
-                     "\r\nMIME-Version: 1.0\r\nContent-Type: text/plain; charset=utf-8\r\n"
-                     "Content-Transfer-Encoding: 8bit\r\n\r\n";
-  std::size_t start = 0;
-  while (start < m.body.size()) {
-    std::size_t end = m.body.find('\n', start);
-    if (end == std::string::npos) end = m.body.size();
-    std::string line = m.body.substr(start, end - start);
-    if (!line.empty() && line[0] == '.') line = "." + line;  // RFC 5321 4.5.2
-    text += line + "\r\n";
-    start = end + 1;
-  }
-  return text + ".\r\n";
-}
 
 class Conversation : public std::enable_shared_from_this<Conversation> {
  public:
@@ -129,6 +80,7 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
   // (or, with expected 2, any 2xx).
   asio::awaitable<std::string> Expect(int expected) {
     std::string reply;
+    SmtpReplyLine parsed;
     while (true) {
       std::size_t n = 0;
       if (tls_) {
@@ -141,11 +93,10 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
       buffer_.consume(n);
       while (!line.empty() && (line.back() == '\n' || line.back() == '\r')) line.pop_back();
       reply += (reply.empty() ? "" : " / ") + line;
-      if (line.size() < 4 || line[3] != '-') break;
+      parsed = ParseSmtpReplyLine(line);
+      if (!parsed.continues) break;
     }
-    const int code = reply.size() >= 3 ? std::atoi(reply.substr(0, 3).c_str()) : 0;
-    const bool ok = expected == 2 ? code / 100 == 2 : code == expected;
-    if (!ok) throw SmtpError(step_ + ": " + reply);
+    if (!SmtpReplyAccepted(parsed.code, expected)) throw SmtpError(step_ + ": " + reply);
     co_return reply;
   }
 
@@ -189,8 +140,7 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
     if (config_.starttls) co_await StartTls();
     if (!config_.username.empty()) {
       // The password goes only into this line, which is never logged.
-      co_await Command("AUTH PLAIN", "AUTH PLAIN " + Base64('\0' + config_.username + '\0' + password),
-                       235);
+      co_await Command("AUTH PLAIN", SmtpAuthPlainLine(config_.username, password), 235);
     }
     co_await Command("MAIL FROM", "MAIL FROM:<" + config_.from + ">", 250);
     for (const std::string& r : config_.to) {
@@ -198,7 +148,7 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
     }
     co_await Command("DATA", "DATA", 354);
     step_ = "message";
-    co_await Write(Letter(config_, message_));
+    co_await Write(SmtpLetter(config_, message_, WallSeconds()));
     co_await Expect(250);
     co_await Command("QUIT", "QUIT", 221);
   }

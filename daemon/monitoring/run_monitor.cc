@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "config/alert_routing.h"
 #include "core/reference_check.h"
 #include "core/time_to_target.h"
 #include "daemon/presentation/analysis_report.h"
@@ -14,6 +15,17 @@ namespace plateau {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+// The checkpoint item "run": the run's own state, one double per place (stores written by earlier
+// versions hold the same five).
+enum RunItem : std::size_t {
+  kRunMet,
+  kStalled,
+  kFirstSampleWall,
+  kLastSampleWall,
+  kBadLinesAlarm,
+  kRunItemSize
+};
 
 std::string_view TargetKindName(Target::Kind kind) {
   return kind == Target::Kind::kRelative ? "relative" : "absolute";
@@ -113,9 +125,7 @@ RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
     : config_(std::move(config)),
       store_(std::move(store)),
       log_(std::move(log)),
-      first_sample_wall_(kNaN),
-      last_sample_wall_(kNaN),
-      bad_lines_since_(kNaN) {
+      first_sample_wall_(kNaN) {
   for (const SourceConfig& source : config_.sources) {
     std::vector<StatisticRequest> requests;
     for (const StatisticConfig& s : config_.statistics) {
@@ -132,20 +142,14 @@ RunMonitor::RunMonitor(RunConfig config, std::unique_ptr<RunStore> store,
 }
 
 void RunMonitor::AssignConfidences() {
-  for (Tracked& t : tracked_) {
-    t.confidence = t.config->target ? t.config->target->confidence : config_.evaluation.confidence;
+  std::vector<std::string> names;
+  std::vector<double> own;
+  for (const Tracked& t : tracked_) {
+    names.push_back(t.config->request.name);
+    own.push_back(t.config->target ? t.config->target->confidence : config_.evaluation.confidence);
   }
-  for (const GroupConfig& g : config_.groups) {
-    if (!g.bonferroni || g.members.empty()) continue;
-    // Bonferroni: if each of m intervals misses with probability (1 - c) / m, any misses with at
-    // most 1 - c.
-    const double member = 1.0 - (1.0 - g.confidence) / static_cast<double>(g.members.size());
-    for (Tracked& t : tracked_) {
-      if (std::find(g.members.begin(), g.members.end(), t.config->request.name) != g.members.end()) {
-        t.confidence = std::max(t.confidence, member);
-      }
-    }
-  }
+  const std::vector<double> judged = JudgedConfidences(names, own, config_.groups);
+  for (std::size_t i = 0; i < tracked_.size(); ++i) tracked_[i].confidence = judged[i];
 }
 
 SourceTail* RunMonitor::TailOf(const std::string& source) {
@@ -194,12 +198,11 @@ void RunMonitor::Restore() {
     if (state != checkpoint->items.end()) t.tracker.RestoreState(state->second);
   }
   const auto run = checkpoint->items.find("run");
-  if (run != checkpoint->items.end() && run->second.size() == 5) {
-    run_met_ = run->second[0] != 0.0;
-    stalled_ = run->second[1] != 0.0;
-    first_sample_wall_ = run->second[2];
-    last_sample_wall_ = run->second[3];
-    bad_lines_alarm_ = run->second[4] != 0.0;
+  if (run != checkpoint->items.end() && run->second.size() == kRunItemSize) {
+    const std::vector<double>& item = run->second;
+    run_met_ = item[kRunMet] != 0.0;
+    first_sample_wall_ = item[kFirstSampleWall];
+    input_health_.Restore(item[kStalled] != 0.0, item[kLastSampleWall], item[kBadLinesAlarm] != 0.0);
   }
   log_->info("resumed from the checkpoint of cycle {} ({} files)", checkpoint->cycle,
              checkpoint->files.size());
@@ -207,10 +210,10 @@ void RunMonitor::Restore() {
 
 void RunMonitor::NoteCatchUp() {
   rate_.Restart();
-  bad_lines_since_ = kNaN;
+  input_health_.NoteCatchUp();
 }
 
-EventRow RunMonitor::MakeEvent(const std::string& kind, const std::string& statistic,
+EventRow RunMonitor::MakeEvent(EventKind kind, const std::string& statistic,
                                std::string message, double simulated_time,
                                double wall_time) const {
   EventRow e;
@@ -224,53 +227,42 @@ EventRow RunMonitor::MakeEvent(const std::string& kind, const std::string& stati
   e.confidence = kNaN;
   e.progress_rate = rate_.PerHour();
   e.elapsed_wall = wall_time - first_sample_wall_;
-  const AlertsConfig& a = config_.alerts;
-  if (std::find(a.events.begin(), a.events.end(), kind) != a.events.end()) {
-    if (a.email) e.channels.push_back("email");
-    if (a.command) e.channels.push_back("command");
+  for (const AlertChannelKind channel : RecordedChannelsFor(kind, config_.alerts)) {
+    e.channels.emplace_back(AlertChannelKindName(channel));
   }
-  if (kind == "run_met" && !a.stop_file.empty()) e.channels.push_back("stop_file");
   return e;
 }
 
 void RunMonitor::WatchInput(const CycleRecord& record, double wall_time,
                             std::vector<EventRow>& events) {
-  const double newest = record.last_sample_wall_time;
-  if (stalled_ && newest > last_sample_wall_) {
-    stalled_ = false;
-    events.push_back(MakeEvent("resumed", "", "new samples arrive again (time " +
-                                                  FormatValue(record.last_sample_time) + ")",
-                               record.last_sample_time, wall_time));
-  }
-  if (!std::isnan(newest)) last_sample_wall_ = newest;
-  if (!stalled_ && !std::isnan(last_sample_wall_) &&
-      wall_time - last_sample_wall_ > config_.alerts.stall_after) {
-    stalled_ = true;
-    events.push_back(MakeEvent("stalled", "",
-                               "no new sample for " +
-                                   FormatDuration(wall_time - last_sample_wall_) +
-                                   " (the newest has time " + FormatValue(record.last_sample_time) +
-                                   "): has the solver stopped, crashed or hung?",
-                               record.last_sample_time, wall_time));
-  }
-  std::uint64_t bad = 0;
-  for (const auto& tail : tails_) bad += tail->bad_lines();
-  if (!std::isnan(bad_lines_since_) && wall_time > bad_lines_since_) {
-    const double per_minute =
-        static_cast<double>(bad - bad_lines_seen_) / (wall_time - bad_lines_since_) * 60.0;
-    if (per_minute > config_.alerts.bad_lines_per_minute && !bad_lines_alarm_) {
-      events.push_back(MakeEvent(
-          "bad_lines", "",
-          std::to_string(bad - bad_lines_seen_) + " bad lines since the last evaluation (" +
-              FormatValue(per_minute) + " a minute, above " +
-              FormatValue(config_.alerts.bad_lines_per_minute) +
-              "): is something else writing into the probe files?",
-          record.last_sample_time, wall_time));
+  InputObservation seen;
+  seen.wall_time = wall_time;
+  seen.newest_sample_wall = record.last_sample_wall_time;
+  for (const auto& tail : tails_) seen.bad_lines += tail->bad_lines();
+  const InputHealthLimits limits{config_.alerts.stall_after, config_.alerts.bad_lines_per_minute};
+  const std::string newest = FormatValue(record.last_sample_time);
+  for (const InputHealthEvent& e : input_health_.Observe(seen, limits)) {
+    EventKind kind = EventKind::kResumed;
+    std::string message;
+    switch (e.kind) {
+      case InputHealthEvent::Kind::kResumed:
+        message = "new samples arrive again (time " + newest + ")";
+        break;
+      case InputHealthEvent::Kind::kStalled:
+        kind = EventKind::kStalled;
+        message = "no new sample for " + FormatDuration(e.quiet_seconds) + " (the newest has time " +
+                  newest + "): has the solver stopped, crashed or hung?";
+        break;
+      case InputHealthEvent::Kind::kBadLines:
+        kind = EventKind::kBadLines;
+        message = std::to_string(e.bad_lines) + " bad lines since the last evaluation (" +
+                  FormatValue(e.per_minute) + " a minute, above " +
+                  FormatValue(limits.bad_lines_per_minute) +
+                  "): is something else writing into the probe files?";
+        break;
     }
-    bad_lines_alarm_ = per_minute > config_.alerts.bad_lines_per_minute;
+    events.push_back(MakeEvent(kind, "", message, record.last_sample_time, wall_time));
   }
-  bad_lines_seen_ = bad;
-  bad_lines_since_ = wall_time;
 }
 
 std::vector<RunMonitor::SourceCounters> RunMonitor::Counters() const {
@@ -341,8 +333,7 @@ std::string RunMonitor::Reload(const RunConfig& fresh) {
 
 void RunMonitor::ShiftWallClock(double seconds) {
   first_sample_wall_ += seconds;
-  last_sample_wall_ += seconds;
-  bad_lines_since_ += seconds;
+  input_health_.ShiftWallClock(seconds);
   rate_.Shift(seconds);
   for (auto& tail : tails_) tail->ShiftWallClock(seconds);
 }
@@ -388,10 +379,7 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
     reason = problem;
   } else {
     for (const ConvergenceEvent& event : t.tracker.Update(e, wall_time)) {
-      const char* kind = event.kind == ConvergenceEvent::Kind::kMet    ? "met"
-                         : event.kind == ConvergenceEvent::Kind::kLost ? "lost"
-                                                                       : "drift";
-      EventRow row = MakeEvent(kind, event.statistic, event.message, event.simulated_time,
+      EventRow row = MakeEvent(event.kind, event.statistic, event.message, event.simulated_time,
                                event.wall_time);
       row.value = e.value;
       row.half_width = e.half_width;
@@ -462,8 +450,10 @@ std::optional<ReferenceComparison> RunMonitor::Reference(const StatisticConfig& 
                                     difference ? &*difference : nullptr);
 }
 
-SnapshotRow RunMonitor::GroupSnapshot(const GroupConfig& g, const std::vector<SnapshotRow>& rows,
+SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g,
+                                      const std::vector<TargetStanding>& standings,
                                       double wall_time) const {
+  const GroupStanding standing = JudgeGroup(g, standings);
   SnapshotRow row;
   row.statistic = g.name;
   row.target_kind = "group";
@@ -471,29 +461,11 @@ SnapshotRow RunMonitor::GroupSnapshot(const GroupConfig& g, const std::vector<Sn
   row.integrated_time = row.effective_samples = row.warmup_end_time = row.last_time = kNaN;
   row.target_value = row.target_half_width = row.met_at_time = row.met_at_wall = kNaN;
   row.confidence = g.confidence;
-  int met = 0;
-  double remaining = 0.0;
-  const SnapshotRow* first_unmet = nullptr;
-  for (const std::string& member : g.members) {
-    for (const SnapshotRow& r : rows) {
-      if (r.statistic != member) continue;
-      if (r.state == "met") {
-        ++met;
-      } else if (!first_unmet) {
-        first_unmet = &r;
-      }
-      remaining = std::isnan(r.remaining_time) ? kNaN : std::max(remaining, r.remaining_time);
-    }
-  }
-  const int size = static_cast<int>(g.members.size());
-  row.state = met == size ? "met" : "converging";
-  row.state_reason = std::to_string(met) + " of " + std::to_string(size) + " members met" +
-                     (first_unmet ? "; " + first_unmet->statistic + " is " + first_unmet->state +
-                                        ": " + first_unmet->state_reason
-                                  : "");
-  row.remaining_time = remaining;
+  row.state = standing.met ? "met" : "converging";
+  row.state_reason = standing.reason;
+  row.remaining_time = standing.remaining_time;
   const double rate = rate_.PerHour();
-  row.remaining_wall = rate > 0.0 ? remaining / rate * 3600.0 : kNaN;
+  row.remaining_wall = rate > 0.0 ? row.remaining_time / rate * 3600.0 : kNaN;
   JsonWriter json;
   json.BeginObject();
   json.Field("name", g.name);
@@ -502,43 +474,17 @@ SnapshotRow RunMonitor::GroupSnapshot(const GroupConfig& g, const std::vector<Sn
   json.BeginArray();
   for (const std::string& m : g.members) json.String(m);
   json.EndArray();
-  json.Field("members_met", met);
+  json.Field("members_met", standing.members_met);
   json.Field("state", row.state);
   json.Field("state_reason", row.state_reason);
   json.Field("required", g.required);
   json.Field("bonferroni", g.bonferroni);
   json.Field("confidence", g.confidence);
-  json.Field("member_confidence",
-             g.bonferroni ? 1.0 - (1.0 - g.confidence) / std::max(size, 1) : kNaN);
+  json.Field("member_confidence", standing.member_confidence);
   WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
   json.EndObject();
   row.json = json.text();
   return row;
-}
-
-bool RunMonitor::RunMet(const std::vector<SnapshotRow>& rows) const {
-  const auto in_a_group = [&](const std::string& name) {
-    for (const GroupConfig& g : config_.groups) {
-      if (std::find(g.members.begin(), g.members.end(), name) != g.members.end()) return true;
-    }
-    return false;
-  };
-  int targets = 0;
-  for (const SnapshotRow& r : rows) {
-    const bool group = r.target_kind == "group";
-    if (r.target_kind.empty() || r.target_kind == "profile" ||
-        (!group && in_a_group(r.statistic))) {
-      continue;
-    }
-    if (group) {
-      const auto g = std::find_if(config_.groups.begin(), config_.groups.end(),
-                                  [&](const GroupConfig& x) { return x.name == r.statistic; });
-      if (g == config_.groups.end() || !g->required) continue;
-    }
-    ++targets;
-    if (r.state != "met") return false;
-  }
-  return targets > 0;
 }
 
 Status RunMonitor::Evaluate(double wall_time) {
@@ -558,38 +504,28 @@ Status RunMonitor::Evaluate(double wall_time) {
   rate_.Add(wall_time, record.last_sample_time);
   std::vector<EventRow> events;
   WatchInput(record, wall_time, events);
-  int targets = 0;
-  int met = 0;
-  record.remaining_time = 0.0;
   std::vector<StatisticEstimate> estimates(tracked_.size());
+  std::vector<TargetStanding> standings;
   for (std::size_t i = 0; i < tracked_.size(); ++i) {
     Tracked& t = tracked_[i];
-    record.snapshots.push_back(Snapshot(t, wall_time, events, &estimates[i]));
-    if (t.config->target) {
-      ++targets;
-      met += t.tracker.met();
-      const double left = record.snapshots.back().remaining_time;
-      record.remaining_time = std::isnan(left) ? kNaN : std::max(record.remaining_time, left);
-    }
+    const SnapshotRow& row = record.snapshots.emplace_back(Snapshot(t, wall_time, events, &estimates[i]));
+    standings.push_back({row.statistic, t.config->target.has_value(), row.state == "met", row.state,
+                         row.state_reason, row.remaining_time});
   }
-  if (targets == 0) record.remaining_time = kNaN;
+  record.remaining_time = RunRemainingTime(standings);
   const double rate = rate_.PerHour();
   record.remaining_wall = rate > 0.0 ? record.remaining_time / rate * 3600.0 : kNaN;
-  const std::size_t statistic_rows = record.snapshots.size();
   std::vector<ProfileSummaries::Entry> entries;
   for (std::size_t i = 0; i < tracked_.size(); ++i) {
     entries.push_back({tracked_[i].config, &estimates[i], &record.snapshots[i]});
   }
   for (SnapshotRow& row : summaries_->Rows(entries)) record.snapshots.push_back(std::move(row));
-  for (const GroupConfig& g : config_.groups) {
-    record.snapshots.push_back(GroupSnapshot(
-        g,
-        std::vector<SnapshotRow>(record.snapshots.begin(), record.snapshots.begin() + statistic_rows),
-        wall_time));
+  for (const StatisticGroup& g : config_.groups) {
+    record.snapshots.push_back(GroupSnapshot(g, standings, wall_time));
   }
-  const bool run_met = RunMet(record.snapshots);
+  const bool run_met = RunMet(standings, config_.groups);
   if (run_met != run_met_) {
-    events.push_back(MakeEvent(run_met ? "run_met" : "run_lost", "",
+    events.push_back(MakeEvent(run_met ? EventKind::kRunMet : EventKind::kRunLost, "",
                                run_met ? "every target of run " + config_.run_name +
                                              " is met: the solver can stop"
                                        : "run " + config_.run_name + " no longer meets every target",
@@ -604,8 +540,13 @@ Status RunMonitor::Evaluate(double wall_time) {
   for (const Tracked& t : tracked_) {
     record.checkpoint["tracker:" + t.config->request.name] = t.tracker.SaveState();
   }
-  record.checkpoint["run"] = {run_met_ ? 1.0 : 0.0, stalled_ ? 1.0 : 0.0, first_sample_wall_,
-                              last_sample_wall_, bad_lines_alarm_ ? 1.0 : 0.0};
+  std::vector<double>& run = record.checkpoint["run"];
+  run.resize(kRunItemSize);
+  run[kRunMet] = run_met_ ? 1.0 : 0.0;
+  run[kStalled] = input_health_.stalled() ? 1.0 : 0.0;
+  run[kFirstSampleWall] = first_sample_wall_;
+  run[kLastSampleWall] = input_health_.last_sample_wall();
+  run[kBadLinesAlarm] = input_health_.bad_lines_alarm() ? 1.0 : 0.0;
 
   Status status = store_->WriteCycle(record);
   if (!status.ok()) {
@@ -620,9 +561,11 @@ Status RunMonitor::Evaluate(double wall_time) {
   cycle_ = record.cycle;
   record.checkpoint.clear();  // kept in the store; memory keeps what status and metrics show
   last_cycle_ = std::move(record);
-  for (const EventRow& e : pending_events_) log_->info("event {}: {}", e.kind, e.message);
   pending_events_.clear();
-  log_->debug("cycle {}: {} of {} targets met", cycle_, met, targets);
+  log_->debug("cycle {}: {} of {} statistics met", cycle_,
+              std::count_if(standings.begin(), standings.end(),
+                            [](const TargetStanding& s) { return s.met; }),
+              standings.size());
   return status;
 }
 

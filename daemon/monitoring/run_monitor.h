@@ -15,8 +15,10 @@
 
 #include "config/run_config.h"
 #include "core/convergence_tracker.h"
+#include "core/input_health.h"
 #include "core/progress_rate.h"
 #include "core/reference_check.h"
+#include "core/run_verdict.h"
 #include "core/status.h"
 #include "daemon/monitoring/profile_summaries.h"
 #include "daemon/ingest/source_tail.h"
@@ -87,15 +89,12 @@ class RunMonitor {
                                                const EvaluationOptions& options);
   SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events,
                        StatisticEstimate* estimate);
-  SnapshotRow GroupSnapshot(const GroupConfig& group, const std::vector<SnapshotRow>& rows,
+  SnapshotRow GroupSnapshot(const StatisticGroup& group, const std::vector<TargetStanding>& standings,
                             double wall_time) const;
   // Per statistic, the confidence it is judged at (Bonferroni groups make it stricter).
   void AssignConfidences();
-  // Whether the run meets every target it must: the required groups and every statistic with a
-  // target outside any group.
-  bool RunMet(const std::vector<SnapshotRow>& rows) const;
   // An event with the details alerts need and the channels that take its kind.
-  EventRow MakeEvent(const std::string& kind, const std::string& statistic, std::string message,
+  EventRow MakeEvent(EventKind kind, const std::string& statistic, std::string message,
                      double simulated_time, double wall_time) const;
   void WatchInput(const CycleRecord& record, double wall_time, std::vector<EventRow>& events);
 
@@ -111,11 +110,7 @@ class RunMonitor {
   bool last_write_failed_ = false;
   ProgressRate rate_;
   double first_sample_wall_;  // when the run's first sample was read
-  double last_sample_wall_;   // when its newest sample was read (kept across restarts)
-  bool stalled_ = false;
-  std::uint64_t bad_lines_seen_ = 0;
-  double bad_lines_since_;  // wall time of bad_lines_seen_; NaN: no baseline yet
-  bool bad_lines_alarm_ = false;
+  InputHealth input_health_;
   CycleRecord last_cycle_;
 };
 

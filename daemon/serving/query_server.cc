@@ -172,7 +172,7 @@ std::string QueryServer::Answer(std::string_view line) {
       for (const EventRow& e : events) {
         json.BeginObject();
         json.Field("id", e.id);
-        json.Field("kind", e.kind);
+        json.Field("kind", EventKindName(e.kind));
         json.Field("statistic", e.statistic);
         json.Field("message", e.message);
         json.Field("simulated_time", e.simulated_time);

@@ -109,7 +109,10 @@ double WatchLoop::Now() {
 
 void WatchLoop::Evaluate() {
   // Alerts go out right after the cycle that recorded their events.
-  if (monitor_.Evaluate(Now()).ok()) alerts_.DispatchDue();
+  if (monitor_.Evaluate(Now()).ok()) {
+    alerts_.Announce(monitor_.last_cycle().events);
+    alerts_.DispatchDue();
+  }
   // Writing on into a deleted file would lose every cycle from now on without a word. A moved
   // store has just received this cycle where it went; either way this daemon's place is gone.
   if (monitor_.store().HasMoved()) {
@@ -210,7 +213,9 @@ void WatchLoop::Stop(int signal) {
   // stays unread; the checkpoint's offsets say where to resume.
   log_->info("{}: writing a final cycle and stopping", signal == SIGINT ? "SIGINT" : "SIGTERM");
   // Alerts of this last cycle stay pending in the store: the next daemon sends them.
-  if (!monitor_.Evaluate(Now()).ok()) {
+  if (monitor_.Evaluate(Now()).ok()) {
+    alerts_.Announce(monitor_.last_cycle().events);
+  } else {
     log_->error("the final cycle could not be written; the last recorded cycle ({}) stands",
                 monitor_.cycle());
   }

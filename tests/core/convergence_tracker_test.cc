@@ -38,7 +38,7 @@ TEST(ConvergenceTracker, MetOnlyAfterThreeConfirmationsWithNewData) {
   EXPECT_TRUE(t.Update(Estimated(2.0, 0.014, 3000), 30.0).empty());
   const auto met = t.Update(Estimated(2.0, 0.013, 4000), 40.0);
   ASSERT_EQ(met.size(), 1u);
-  EXPECT_EQ(met[0].kind, ConvergenceEvent::Kind::kMet);
+  EXPECT_EQ(met[0].kind, EventKind::kMet);
   EXPECT_EQ(t.state(), ConvergenceState::kMet);
   EXPECT_EQ(t.met_at_wall(), 40.0);
   EXPECT_EQ(t.met_at_time(), 40.0);
@@ -51,7 +51,7 @@ TEST(ConvergenceTracker, LosingTheTargetIsAnEventAndNeedsFreshConfirmations) {
   ASSERT_TRUE(t.met());
   const auto lost = t.Update(Estimated(2.0, 0.03, 4000), 4.0);
   ASSERT_EQ(lost.size(), 1u);
-  EXPECT_EQ(lost[0].kind, ConvergenceEvent::Kind::kLost);
+  EXPECT_EQ(lost[0].kind, EventKind::kLost);
   EXPECT_FALSE(t.met());
   EXPECT_EQ(t.consecutive(), 0);
 }
@@ -91,8 +91,8 @@ TEST(ConvergenceTracker, DriftIsAnEventOnlyAfterASteadySpell) {
   e.samples_total = 6000;
   const auto drift = t.Update(e, 6.0);
   ASSERT_EQ(drift.size(), 2u);  // it was met, so it is lost too
-  EXPECT_EQ(drift[0].kind, ConvergenceEvent::Kind::kLost);
-  EXPECT_EQ(drift[1].kind, ConvergenceEvent::Kind::kDrift);
+  EXPECT_EQ(drift[0].kind, EventKind::kLost);
+  EXPECT_EQ(drift[1].kind, EventKind::kDrift);
   e.samples_total = 7000;
   EXPECT_TRUE(t.Update(e, 7.0).empty());  // reported once while it lasts
   // Restored from a checkpoint, the steady spell and the report survive.

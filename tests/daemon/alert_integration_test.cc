@@ -206,15 +206,15 @@ TEST_F(AlertIntegration, InputThatStopsGrowingIsStalledAndThenResumed) {
   WriteConfig("{relative: 0.01}", "", "alerts:\n  stall_after: 1\n");
   Append("run1/probe.dat", "# time x y\n" + ProbeRows(200).Rows(0, 100));
   WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
-  const auto has = [&](const std::string& kind) {
+  const auto has = [&](EventKind kind) {
     for (const EventRow& e : Events()) {
       if (e.kind == kind) return true;
     }
     return false;
   };
-  ASSERT_TRUE(WaitFor([&] { return has("stalled"); }, 10)) << Log();
+  ASSERT_TRUE(WaitFor([&] { return has(EventKind::kStalled); }, 10)) << Log();
   Append("run1/probe.dat", ProbeRows(200).Rows(100, 200));
-  ASSERT_TRUE(WaitFor([&] { return has("resumed"); }, 10)) << Log();
+  ASSERT_TRUE(WaitFor([&] { return has(EventKind::kResumed); }, 10)) << Log();
 }
 
 }  // namespace

@@ -19,7 +19,7 @@ RunConfig Ch420Run() {
 EventRow RunMet() {
   EventRow e;
   e.id = 7;
-  e.kind = "run_met";
+  e.kind = EventKind::kRunMet;
   e.message = "every target of run ch420 is met: the solver can stop";
   e.simulated_time = 160.0;
   e.wall_time = 1796194795.0;
@@ -62,7 +62,7 @@ TEST(AlertMessage, NoPlannedEndMeansNoSavingsClaimed) {
 
 TEST(AlertMessage, StatisticEventsCarryValueAndEnvironment) {
   EventRow e = RunMet();
-  e.kind = "met";
+  e.kind = EventKind::kMet;
   e.statistic = "tau_lower";
   e.message = "tau_lower met its target: 0.2781 ± 0.0027 at 95 % confidence";
   e.value = 0.2781;
@@ -89,7 +89,7 @@ TEST(AlertMessage, DigestLeadsWithTheRunAndListsTheRestUpToALimit) {
   std::vector<EventRow> events;
   for (int i = 0; i < 60; ++i) {
     EventRow e = RunMet();
-    e.kind = "met";
+    e.kind = EventKind::kMet;
     e.statistic = "line[" + std::to_string(i) + "]/U";
     e.message = e.statistic + " met its target";
     events.push_back(e);

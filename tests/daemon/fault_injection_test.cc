@@ -292,7 +292,7 @@ TEST_F(FaultInjection, ClockStepsForwardAndBackWithoutAFalseStall) {
   EXPECT_EQ(CountInLog("the system clock jumped forward by"), 1)
       << ReadAll(Path("test.plateau.log"));
   EXPECT_EQ(CountInLog("the system clock jumped back by"), 1);
-  for (const EventRow& e : Events()) EXPECT_NE(e.kind, "stalled") << e.message;
+  for (const EventRow& e : Events()) EXPECT_NE(e.kind, EventKind::kStalled) << e.message;
   StopCleanly(daemon);
 }
 

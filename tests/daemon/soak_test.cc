@@ -206,11 +206,12 @@ TEST_F(Soak, FlatMemoryNoDescriptorLeakEverySampleOnceNoEventTwice) {
   std::set<std::tuple<std::string, std::string, double>> seen;
   std::map<std::string, std::string> last_of;
   for (const EventRow& e : Events()) {
-    EXPECT_TRUE(seen.insert({e.kind, e.statistic, e.simulated_time}).second)
-        << e.kind << " " << e.statistic << " at " << e.simulated_time;
-    if (e.kind == "met" || e.kind == "lost") {
-      EXPECT_NE(last_of[e.statistic], e.kind) << e.statistic << ": " << e.kind << " twice";
-      last_of[e.statistic] = e.kind;
+    const std::string kind(EventKindName(e.kind));
+    EXPECT_TRUE(seen.insert({kind, e.statistic, e.simulated_time}).second)
+        << kind << " " << e.statistic << " at " << e.simulated_time;
+    if (kind == "met" || kind == "lost") {
+      EXPECT_NE(last_of[e.statistic], kind) << e.statistic << ": " << kind << " twice";
+      last_of[e.statistic] = kind;
     }
   }
   daemon.Signal(SIGTERM);

@@ -64,8 +64,8 @@ TEST_F(WatchIntegration, FollowsGrowingFilesAndCheckSaysStopOnceMet) {
   auto store = RunStore::OpenForReading(Path("plateau.db"), &status_of_store);
   const auto events = store->ReadEvents(0, 10, &status_of_store);
   ASSERT_EQ(events.size(), 2u);
-  EXPECT_EQ(events[0].kind, "met");
-  EXPECT_EQ(events[1].kind, "run_met");
+  EXPECT_EQ(events[0].kind, EventKind::kMet);
+  EXPECT_EQ(events[1].kind, EventKind::kRunMet);
 }
 
 TEST_F(WatchIntegration, RestartFolderWithOverlappingTimesIsCountedOnce) {

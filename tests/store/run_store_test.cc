@@ -45,7 +45,7 @@ class RunStoreTest : public ::testing::Test {
     e.wall_time = 1000.0 + n;
     e.simulated_time = 10.0 * n;
     e.statistic = "tau";
-    e.kind = "met";
+    e.kind = EventKind::kMet;
     e.message = "tau met its target";
     e.value = 0.28;
     e.channels = {"email", "command"};

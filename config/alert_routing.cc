@@ -1,0 +1,45 @@
+#include "config/alert_routing.h"
+
+#include <algorithm>
+#include <array>
+#include <utility>
+
+namespace plateau {
+namespace {
+
+constexpr std::array<std::pair<AlertChannelKind, std::string_view>, 4> kNames{{
+    {AlertChannelKind::kEmail, "email"},
+    {AlertChannelKind::kCommand, "command"},
+    {AlertChannelKind::kStopFile, "stop_file"},
+    {AlertChannelKind::kLog, "log"},
+}};
+
+}  // namespace
+
+std::string_view AlertChannelKindName(AlertChannelKind channel) {
+  for (const auto& [c, name] : kNames) {
+    if (c == channel) return name;
+  }
+  return "unknown";
+}
+
+std::optional<AlertChannelKind> AlertChannelKindFromName(std::string_view name) {
+  for (const auto& [c, n] : kNames) {
+    if (n == name) return c;
+  }
+  return std::nullopt;
+}
+
+std::vector<AlertChannelKind> RecordedChannelsFor(EventKind kind, const AlertsConfig& alerts) {
+  std::vector<AlertChannelKind> channels;
+  if (std::find(alerts.events.begin(), alerts.events.end(), kind) != alerts.events.end()) {
+    if (alerts.email) channels.push_back(AlertChannelKind::kEmail);
+    if (alerts.command) channels.push_back(AlertChannelKind::kCommand);
+  }
+  if (kind == EventKind::kRunMet && !alerts.stop_file.empty()) {
+    channels.push_back(AlertChannelKind::kStopFile);
+  }
+  return channels;
+}
+
+}  // namespace plateau

@@ -1,0 +1,66 @@
+// The run's stop decision from its statistics' standings: which confidence each statistic is judged
+// at (a Bonferroni group makes its members stricter), whether a group is met, whether the run is
+// met, and how much longer the run needs. Pure; stateless.
+#ifndef PLATEAU_CORE_RUN_VERDICT_H_
+#define PLATEAU_CORE_RUN_VERDICT_H_
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+namespace plateau {
+
+// Statistics that stop jointly (the config's `groups:`): a group is met when all its members are.
+struct StatisticGroup {
+  std::string name;
+  std::vector<std::string> members;
+  bool bonferroni = false;
+  double confidence = 0.95;  // of the group as a whole
+  bool required = true;      // the run waits for it
+};
+
+// One statistic as the verdict sees it.
+struct TargetStanding {
+  std::string name;
+  bool has_target = false;
+  bool met = false;
+  std::string state;         // its state name, for the group's reason
+  std::string state_reason;
+  double remaining_time = 0.0;  // simulated time still needed; NaN: unknown
+};
+
+struct GroupStanding {
+  int members = 0;
+  int members_met = 0;
+  bool met = false;
+  // "1 of 2 members met; tau_upper is converging: ..." (the first unmet member, in group order).
+  std::string reason;
+  double remaining_time = 0.0;  // the largest of the members'; NaN when any is unknown
+  double member_confidence = 0.0;  // Bonferroni's; NaN without it
+};
+
+// Bonferroni: if each of m intervals misses with probability (1 - c) / m, any misses with at most
+// 1 - c (Bonferroni's inequality; e.g. Miller 1981, Simultaneous Statistical Inference, ch. 1).
+double BonferroniMemberConfidence(double joint_confidence, std::size_t members);
+
+// Per statistic (`names`, with `own` confidences in the same order), the confidence it is judged
+// at: its own, or its Bonferroni groups' member confidence when stricter.
+std::vector<double> JudgedConfidences(const std::vector<std::string>& names,
+                                      const std::vector<double>& own,
+                                      const std::vector<StatisticGroup>& groups);
+
+// A group's standing from its members' (members missing from `statistics` count as unmet and
+// unknown).
+GroupStanding JudgeGroup(const StatisticGroup& group, const std::vector<TargetStanding>& statistics);
+
+// The run is met when every required group is met and every statistic with a target outside any
+// group is, and at least one of those exists.
+bool RunMet(const std::vector<TargetStanding>& statistics, const std::vector<StatisticGroup>& groups);
+
+// The run's remaining simulated time: the largest over the statistics with a target (0 for met
+// ones); NaN when any of them is unknown or none has a target.
+double RunRemainingTime(const std::vector<TargetStanding>& statistics);
+
+}  // namespace plateau
+
+#endif  // PLATEAU_CORE_RUN_VERDICT_H_

@@ -1,0 +1,92 @@
+// The run's stop decision (core/run_verdict.h): Bonferroni confidences, groups, the run verdict and
+// its remaining time.
+#include "core/run_verdict.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <limits>
+
+namespace plateau {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+TargetStanding Met(const std::string& name) {
+  return {name, true, true, "met", "", 0.0};
+}
+TargetStanding Converging(const std::string& name, double remaining) {
+  return {name, true, false, "converging", "half-width 2 % of 1 %", remaining};
+}
+TargetStanding Monitored(const std::string& name) {
+  return {name, false, false, "monitored", "", kNaN};
+}
+
+TEST(RunVerdict, BonferroniSharesTheMissProbability) {
+  // Bonferroni's inequality: two 97.5 % intervals cover jointly with at least 95 %.
+  EXPECT_DOUBLE_EQ(BonferroniMemberConfidence(0.95, 2), 0.975);
+  EXPECT_NEAR(BonferroniMemberConfidence(0.95, 72), 1.0 - 0.05 / 72, 1e-15);
+  EXPECT_DOUBLE_EQ(BonferroniMemberConfidence(0.9, 1), 0.9);
+}
+
+TEST(RunVerdict, OnlyBonferroniMembersAreJudgedStricterAndNeverLooser) {
+  const std::vector<StatisticGroup> groups = {
+      {"walls", {"tau_lower", "tau_upper"}, true, 0.95, true},
+      {"loose", {"cd"}, false, 0.5, true},
+      {"strict_already", {"cl"}, true, 0.9, true}};
+  const std::vector<double> judged =
+      JudgedConfidences({"tau_lower", "tau_upper", "cd", "cl"}, {0.95, 0.95, 0.95, 0.99}, groups);
+  EXPECT_DOUBLE_EQ(judged[0], 0.975);
+  EXPECT_DOUBLE_EQ(judged[1], 0.975);
+  EXPECT_DOUBLE_EQ(judged[2], 0.95);  // not Bonferroni
+  EXPECT_DOUBLE_EQ(judged[3], 0.99);  // its own is stricter than the group's 0.9
+}
+
+TEST(RunVerdict, AGroupNamesItsFirstUnmetMemberAndWaitsForTheSlowest) {
+  const StatisticGroup walls{"walls", {"tau_lower", "tau_upper", "tau_side"}, true, 0.95, true};
+  const GroupStanding g = JudgeGroup(
+      walls, {Met("tau_lower"), Converging("tau_upper", 12.0), Converging("tau_side", 30.0)});
+  EXPECT_FALSE(g.met);
+  EXPECT_EQ(g.members_met, 1);
+  EXPECT_EQ(g.members, 3);
+  EXPECT_EQ(g.reason, "1 of 3 members met; tau_upper is converging: half-width 2 % of 1 %");
+  EXPECT_DOUBLE_EQ(g.remaining_time, 30.0);
+  EXPECT_NEAR(g.member_confidence, 1.0 - 0.05 / 3, 1e-15);
+
+  const GroupStanding unknown =
+      JudgeGroup(walls, {Met("tau_lower"), Converging("tau_upper", kNaN), Met("tau_side")});
+  EXPECT_TRUE(std::isnan(unknown.remaining_time));
+
+  const GroupStanding all = JudgeGroup(walls, {Met("tau_lower"), Met("tau_upper"), Met("tau_side")});
+  EXPECT_TRUE(all.met);
+  EXPECT_EQ(all.reason, "3 of 3 members met");
+  EXPECT_DOUBLE_EQ(all.remaining_time, 0.0);
+}
+
+TEST(RunVerdict, TheRunWaitsForUngroupedTargetsAndRequiredGroupsOnly) {
+  const std::vector<StatisticGroup> groups = {
+      {"walls", {"tau_lower", "tau_upper"}, true, 0.95, true},
+      {"optional", {"cl"}, false, 0.95, false}};
+  // An unmet member of a required group holds the run; an unmet member of an optional one does not.
+  EXPECT_FALSE(RunMet({Met("cd"), Met("tau_lower"), Converging("tau_upper", 1.0),
+                       Converging("cl", 1.0)},
+                      groups));
+  EXPECT_TRUE(RunMet({Met("cd"), Met("tau_lower"), Met("tau_upper"), Converging("cl", 1.0)}, groups));
+  // An ungrouped target holds it; a statistic without a target never does.
+  EXPECT_FALSE(RunMet({Converging("cd", 1.0), Met("tau_lower"), Met("tau_upper")}, groups));
+  EXPECT_TRUE(RunMet({Met("cd"), Monitored("k"), Met("tau_lower"), Met("tau_upper")}, groups));
+  // Nothing to judge: not met (a run without targets cannot be declared done).
+  EXPECT_FALSE(RunMet({Monitored("k")}, {}));
+}
+
+TEST(RunVerdict, RemainingTimeIsTheSlowestTargetsOrUnknown) {
+  EXPECT_DOUBLE_EQ(RunRemainingTime({Met("a"), Converging("b", 4.0), Converging("c", 9.0),
+                                     Monitored("d")}),
+                   9.0);
+  EXPECT_TRUE(std::isnan(RunRemainingTime({Converging("b", 4.0), Converging("c", kNaN)})));
+  EXPECT_TRUE(std::isnan(RunRemainingTime({Monitored("d")})));
+  EXPECT_DOUBLE_EQ(RunRemainingTime({Met("a")}), 0.0);
+}
+
+}  // namespace
+}  // namespace plateau
