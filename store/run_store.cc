@@ -342,7 +342,8 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       if (!(s = snapshot->Run()).ok()) return s;
       latest->Reset();
       latest->Bind(1, position);
-      latest->Bind(2, row.json);
+      // Invalid UTF-8 (a Latin-1 file name) is written as U+FFFD rather than failing the cycle.
+      latest->Bind(2, row.document.dump(-1, ' ', false, nlohmann::detail::error_handler_t::replace));
       if (!(s = latest->Run()).ok()) return s;
     }
 
@@ -544,7 +545,9 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       row.remaining_wall = rows->ColumnDouble(18);
       row.reference_verdict = rows->ColumnText(19);
       row.profile = rows->ColumnText(20);
-      row.json = rows->ColumnText(21);
+      // Written by WriteCycle; a text that does not parse (a damaged file) reads as null.
+      row.document = nlohmann::ordered_json::parse(rows->ColumnText(21), nullptr, false);
+      if (row.document.is_discarded()) row.document = nullptr;
       row.integral_time_scale = rows->ColumnDouble(22);
       row.averaging_time = rows->ColumnDouble(23);
       v.statistics.push_back(std::move(row));

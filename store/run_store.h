@@ -5,6 +5,8 @@
 #ifndef PLATEAU_STORE_RUN_STORE_H_
 #define PLATEAU_STORE_RUN_STORE_H_
 
+#include <nlohmann/json.hpp>
+
 #include <cstdint>
 #include <map>
 #include <memory>
@@ -64,7 +66,8 @@ struct SnapshotRow {
   double remaining_wall = 0.0;  // the same in wall-clock seconds at the observed rate
   std::string reference_verdict;  // consistent, bias, undetermined, or empty without a reference
   std::string profile;  // a profile point's profile (status folds those into summaries)
-  std::string json;  // the full status object; kept for the newest cycle only
+  // The full status object (JSON: the store keeps its text for the newest cycle only).
+  nlohmann::ordered_json document;
 };
 
 struct EventRow {

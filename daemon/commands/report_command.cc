@@ -7,7 +7,7 @@
 #include <memory>
 
 #include "daemon/presentation/number_format.h"
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 #include "daemon/commands/run_locator.h"
 #include "daemon/presentation/svg_plot.h"
 #include "store/run_store.h"
@@ -45,8 +45,19 @@ text.legend.slope { fill: #777; }
 
 std::string Html(const std::string& text) { return SvgPlot::Escape(text); }
 
-double NumberOf(const JsonValue* v) {
-  return v != nullptr && v->type() == JsonValue::Type::kNumber ? v->number() : std::nan("");
+// The numbers of an array member (NaN for what is not a number); empty when absent.
+std::vector<double> NumbersOf(const JsonDocument& object, const char* key) {
+  std::vector<double> numbers;
+  if (!object.is_object() || !object.contains(key) || !object[key].is_array()) return numbers;
+  for (const JsonDocument& v : object[key]) {
+    numbers.push_back(v.is_number() ? v.get<double>() : std::nan(""));
+  }
+  return numbers;
+}
+
+const JsonDocument& Member(const JsonDocument& object, const char* key) {
+  static const JsonDocument kNull;
+  return object.is_object() && object.contains(key) ? object[key] : kNull;
 }
 
 // Every n-th row, so that a plot has at most kMaxPlotPoints points (the last one always).
@@ -60,22 +71,18 @@ std::vector<const HistoryRow*> Thinned(const std::vector<const HistoryRow*>& row
   return out;
 }
 
-std::string StatisticSection(const SnapshotRow& latest, const JsonValue* json,
+std::string StatisticSection(const SnapshotRow& latest, const JsonDocument& json,
                              const std::vector<const HistoryRow*>& history) {
   std::string html = "<h3>" + Html(latest.statistic) + "</h3><p>";
   html += Html(FormatValue(latest.value) + " " + FormatHalfWidth(latest.half_width)) + " at " +
           Html(FormatPercent(latest.confidence)) + " confidence; <span class=\"state-" +
           Html(latest.state) + "\">" + Html(latest.state) + "</span>";
   if (!latest.state_reason.empty()) html += ": " + Html(latest.state_reason);
-  if (json != nullptr) {
-    if (const JsonValue* decided = json->Find("decided_by");
-        decided && decided->type() == JsonValue::Type::kString) {
-      html += "; decided by " + Html(decided->string());
-    }
-    if (const JsonValue* reference = json->Find("reference"); reference && reference->is_object()) {
-      html += "<br>" + Html(reference->Find("words")->string());
-    }
+  if (const std::string decided = TextOr(json, "decided_by"); !decided.empty()) {
+    html += "; decided by " + Html(decided);
   }
+  const JsonDocument& reference = Member(json, "reference");
+  if (reference.is_object()) html += "<br>" + Html(TextOr(reference, "words"));
   html += "</p><div class=\"plots\">";
   const std::vector<const HistoryRow*> rows = Thinned(history);
   std::vector<double> t, value, low, high, averaged, half;
@@ -91,10 +98,8 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonValue* json,
   SvgPlot running("running value with its confidence band", "simulated time", latest.statistic);
   running.Band(t, low, high, "band");
   running.Line(t, value, "value", "value");
-  if (json != nullptr) {
-    if (const JsonValue* reference = json->Find("reference"); reference && reference->is_object()) {
-      running.HorizontalLine(NumberOf(reference->Find("value")), "reference", "reference");
-    }
+  if (reference.is_object()) {
+    running.HorizontalLine(NumberOr(reference, "value"), "reference", "reference");
   }
   html += running.Render();
   SvgPlot shrink("half-width against averaging time", "averaging time", "half-width", true, true);
@@ -110,64 +115,59 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonValue* json,
     shrink.HorizontalLine(latest.target_half_width, "target", "target");
   }
   html += shrink.Render();
-  if (json != nullptr) {
-    const JsonValue* acf = json->Find("autocorrelation");
-    if (acf != nullptr && acf->is_object() && acf->Find("rho") != nullptr) {
-      const double lag = NumberOf(acf->Find("lag_samples"));
-      const double tau = NumberOf(json->Find("integrated_time"));
-      // Out to about ten integrated times (at least 20 lags): where the correlation has died out.
-      const std::size_t shown = std::min(
-          acf->Find("rho")->array().size(),
-          static_cast<std::size_t>(std::max(20.0, std::isfinite(tau) ? 10.0 * tau / lag : 0.0)));
-      std::vector<double> lags, rho;
-      for (std::size_t k = 0; k < shown; ++k) {
-        lags.push_back(static_cast<double>(k) * lag);
-        rho.push_back(acf->Find("rho")->array()[k].number());
-      }
-      SvgPlot correlation("autocorrelation (of the block series)", "lag [samples]", "rho");
-      correlation.Line(lags, rho, "value", "");
-      correlation.HorizontalLine(0.0, "grid", "");
-      char label[128];
-      const double scale = NumberOf(json->Find("integral_time_scale"));
-      if (std::isfinite(scale)) {
-        std::snprintf(label, sizeof label, "tau = %.3g samples, T_int = %.3g in time", tau, scale);
-      } else {
-        std::snprintf(label, sizeof label, "tau = %.3g samples", tau);
-      }
-      correlation.VerticalLine(tau, "tau", label);
-      html += correlation.Render();
+  const JsonDocument& acf = Member(json, "autocorrelation");
+  if (acf.is_object() && acf.contains("rho")) {
+    const double lag = NumberOr(acf, "lag_samples");
+    const double tau = NumberOr(json, "integrated_time");
+    // Out to about ten integrated times (at least 20 lags): where the correlation has died out.
+    std::vector<double> rho = NumbersOf(acf, "rho");
+    rho.resize(std::min(
+        rho.size(),
+        static_cast<std::size_t>(std::max(20.0, std::isfinite(tau) ? 10.0 * tau / lag : 0.0))));
+    std::vector<double> lags;
+    for (std::size_t k = 0; k < rho.size(); ++k) lags.push_back(static_cast<double>(k) * lag);
+    SvgPlot correlation("autocorrelation (of the block series)", "lag [samples]", "rho");
+    correlation.Line(lags, rho, "value", "");
+    correlation.HorizontalLine(0.0, "grid", "");
+    char label[128];
+    const double scale = NumberOr(json, "integral_time_scale");
+    if (std::isfinite(scale)) {
+      std::snprintf(label, sizeof label, "tau = %.3g samples, T_int = %.3g in time", tau, scale);
+    } else {
+      std::snprintf(label, sizeof label, "tau = %.3g samples", tau);
     }
+    correlation.VerticalLine(tau, "tau", label);
+    html += correlation.Render();
   }
   return html + "</div>";
 }
 
-std::string ProfileSection(const JsonValue& summary) {
-  const std::string name = summary.Find("name")->string();
-  const bool wall = summary.Find("wall_units") && summary.Find("wall_units")->boolean();
-  std::string html = "<h3>" + Html(name) + "</h3><p>" + Html(summary.Find("state_reason")->string()) +
+std::string ProfileSection(const JsonDocument& summary) {
+  const std::string name = TextOr(summary, "name");
+  const bool wall = Member(summary, "wall_units").is_boolean() && summary["wall_units"].get<bool>();
+  std::string html = "<h3>" + Html(name) + "</h3><p>" + Html(TextOr(summary, "state_reason")) +
                      "</p><div class=\"plots\">";
-  if (const JsonValue* departure = summary.Find("departure")) {
-    std::vector<double> y, d;
-    for (std::size_t i = 0; i < departure->array().size(); ++i) {
-      y.push_back(summary.Find("y_plus")->array()[i].number());
-      d.push_back(departure->array()[i].number());
-    }
+  if (summary.contains("departure")) {
+    const std::vector<double> d = NumbersOf(summary, "departure");
+    std::vector<double> y = NumbersOf(summary, "y_plus");
+    y.resize(d.size(), std::nan(""));
     SvgPlot balance("total shear stress minus its line, in wall units", "y+", "departure", true);
     balance.Line(y, d, "value", "departure");
     balance.HorizontalLine(0.0, "reference", "exact balance");
     return html + balance.Render() + "</div>";
   }
   std::vector<double> y, v, e, reference_y, reference_v;
-  for (const JsonValue& p : summary.Find("points")->array()) {
-    y.push_back(NumberOf(p.Find(wall ? "y_plus" : "position")));
-    v.push_back(NumberOf(p.Find(wall ? "value_plus" : "value")));
-    e.push_back(NumberOf(p.Find(wall ? "half_width_plus" : "half_width")));
-    if (const JsonValue* r = p.Find("reference")) {
+  const JsonDocument& points = Member(summary, "points");
+  for (const JsonDocument& p : points.is_array() ? points : JsonDocument::array()) {
+    y.push_back(NumberOr(p, wall ? "y_plus" : "position"));
+    v.push_back(NumberOr(p, wall ? "value_plus" : "value"));
+    e.push_back(NumberOr(p, wall ? "half_width_plus" : "half_width"));
+    if (p.contains("reference")) {
       reference_y.push_back(y.back());
-      reference_v.push_back(NumberOf(r->Find("value")));
+      reference_v.push_back(NumberOr(p["reference"], "value"));
     }
   }
-  const std::string quantity = summary.Find("quantity")->string();
+  const std::string quantity = TextOr(summary, "quantity");
   SvgPlot profile(name + (wall ? " in wall units" : ""), wall ? "y+" : "y",
                   quantity + (wall ? "+" : ""), wall);
   profile.Points(y, v, e, "points", "plateau, with half-widths");
@@ -256,15 +256,13 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
           "and licensed practice.</p>";
   std::string groups_html, statistics_html, profiles_html;
   for (const SnapshotRow& s : latest->statistics) {
-    std::string error;
-    const std::optional<JsonValue> json = JsonValue::Parse(s.json, &error);
     if (s.target_kind == "group") {
       groups_html += "<tr><td>" + Html(s.statistic) + "</td><td>" + Html(s.state) + "</td><td>" +
                      Html(s.state_reason) + "</td></tr>";
     } else if (s.target_kind == "profile") {
-      if (json) profiles_html += ProfileSection(*json);
+      if (s.document.is_object()) profiles_html += ProfileSection(s.document);
     } else if (s.profile.empty()) {
-      statistics_html += StatisticSection(s, json ? &*json : nullptr, by_statistic[s.statistic]);
+      statistics_html += StatisticSection(s, s.document, by_statistic[s.statistic]);
     }
   }
   if (!groups_html.empty()) {

@@ -3,7 +3,7 @@
 #include <memory>
 #include <optional>
 
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 #include "daemon/serving/query_server.h"
 #include "daemon/commands/run_locator.h"
 #include "daemon/presentation/status_report.h"
@@ -35,7 +35,7 @@ Reading Read(const std::string& argument) {
   r.context.now = WallSeconds();
   if (const auto reply = AskDaemon(located.socket_path, "{\"request\":\"status\"}", kAskSeconds)) {
     std::string ignored;
-    if (const auto document = JsonValue::Parse(*reply, &ignored)) {
+    if (const auto document = ParseJsonDocument(*reply, &ignored)) {
       r.view = LatestViewFromJson(*document, &r.context);
       if (r.view) {
         r.daemon_json = *reply;

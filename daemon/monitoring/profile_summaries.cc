@@ -55,7 +55,7 @@ SnapshotRow DerivedRow(const StatisticEstimate& e, const std::string& derived_fr
   json.Field("state_reason", row.state_reason);
   json.Field("derived_from", derived_from);
   json.EndObject();
-  row.json = json.text();
+  row.document = json.TakeDocument();
   return row;
 }
 
@@ -249,7 +249,7 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
   json.Field("state", row.state);
   json.Field("state_reason", row.state_reason);
   json.EndObject();
-  row.json = json.text();
+  row.document = json.TakeDocument();
   return row;
 }
 
@@ -305,7 +305,7 @@ SnapshotRow ProfileSummaries::MomentumRow(const ProfileConfig& p,
   json.Field("state", row.state);
   json.Field("state_reason", row.state_reason);
   json.EndObject();
-  row.json = json.text();
+  row.document = json.TakeDocument();
   return row;
 }
 

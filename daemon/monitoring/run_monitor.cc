@@ -46,7 +46,7 @@ void WriteTimeToTarget(JsonWriter& json, double remaining, double wall_seconds,
 }
 
 // The status object of one statistic: the keys of `plateau analyze --json`, plus the stop rule's.
-std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
+JsonDocument StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
                           const ConvergenceTracker& tracker, const SnapshotRow& row,
                           const std::optional<ReferenceComparison>& reference,
                           const SourceStatistics* source, double flow_through_time,
@@ -109,7 +109,7 @@ std::string StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
     json.Null();
   }
   json.EndObject();
-  return json.text();
+  return json.TakeDocument();
 }
 
 StopRuleSettings SettingsFor(const RunConfig& config, const StatisticConfig& c) {
@@ -421,7 +421,7 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
   const std::optional<ReferenceComparison> reference = Reference(c, e, options);
   if (reference) row.reference_verdict = std::string(VerdictName(reference->verdict));
   row.profile = c.profile;
-  row.json = StatisticJson(e, c, t.tracker, row, reference, t.tail->source(),
+  row.document = StatisticJson(e, c, t.tracker, row, reference, t.tail->source(),
                            config_.flow_through_time, wall_time);
   *estimate = std::move(e);
   return row;
@@ -483,7 +483,7 @@ SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g,
   json.Field("member_confidence", standing.member_confidence);
   WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
   json.EndObject();
-  row.json = json.text();
+  row.document = json.TakeDocument();
   return row;
 }
 

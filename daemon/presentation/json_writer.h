@@ -1,6 +1,6 @@
-// Builds one JSON document as text: objects, arrays, strings with escaping, numbers in shortest
-// round-trip form, NaN and infinities as null (JSON has no such numbers; scripts read null as
-// "no value"). Not thread-safe; one writer per document.
+// Writes one JSON document in reading order (begin an object, a key, its value, ...) into an
+// nlohmann-json document whose members keep that order; NaN and infinities become null (JSON has
+// no such numbers; scripts read null as "no value"). Not thread-safe; one writer per document.
 #ifndef PLATEAU_DAEMON_PRESENTATION_JSON_WRITER_H_
 #define PLATEAU_DAEMON_PRESENTATION_JSON_WRITER_H_
 
@@ -9,7 +9,7 @@
 #include <string_view>
 #include <vector>
 
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 
 namespace plateau {
 
@@ -26,10 +26,8 @@ class JsonWriter {
   void Integer(std::int64_t value);
   void Bool(bool value);
   void Null();
-  // A value that is already a JSON document (e.g. an object read back from the store).
-  void Raw(std::string_view json);
-  // A parsed document written back, members in their order.
-  void Value(const JsonValue& value);
+  // A document built elsewhere (a statistic's object of the cycle).
+  void Value(const JsonDocument& value);
 
   // Shorthands for a key and its value.
   void Field(std::string_view key, std::string_view value);
@@ -40,15 +38,18 @@ class JsonWriter {
   void Field(std::string_view key, int value) { Field(key, static_cast<std::int64_t>(value)); }
   void Field(std::string_view key, bool value);
 
-  const std::string& text() const { return text_; }
+  // The document written so far (complete once every Begin has its End).
+  const JsonDocument& document() const { return root_; }
+  JsonDocument TakeDocument() { return std::move(root_); }
+  std::string text() const { return JsonText(root_); }
 
  private:
-  void BeforeValue();
-  void AppendQuoted(std::string_view value);
+  // Places `value` where the next value goes; returns it there.
+  JsonDocument& Put(JsonDocument value);
 
-  std::string text_;
-  std::vector<bool> first_in_scope_;
-  bool after_key_ = false;
+  JsonDocument root_;
+  std::vector<JsonDocument*> open_;  // the containers being written, innermost last
+  std::string key_;
 };
 
 }  // namespace plateau

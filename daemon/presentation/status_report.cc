@@ -67,27 +67,18 @@ Tally Count(const LatestView& v) {
   return t;
 }
 
-double NumberOr(const JsonValue* v) {
-  return v != nullptr && v->type() == JsonValue::Type::kNumber ? v->number() : kNaN;
-}
-
-std::string TextOr(const JsonValue* v) {
-  return v != nullptr && v->type() == JsonValue::Type::kString ? v->string() : "";
-}
-
 // One line per source: how its samples are weighted and the spread of their spacing. Read from
 // each statistic's weighting object (the first statistic of a source speaks for it).
 std::string WeightingLines(const LatestView& v) {
   std::set<std::string> seen;
   std::string out;
   for (const SnapshotRow& s : v.statistics) {
-    std::string error;
-    const std::optional<JsonValue> d = JsonValue::Parse(s.json, &error);
-    if (!d || !d->is_object()) continue;
-    const JsonValue* weighting = d->Find("weighting");
-    const std::string source = TextOr(d->Find("source"));
-    if (weighting == nullptr || !weighting->is_object() || !seen.insert(source).second) continue;
-    out += "source " + source + ": samples " + TextOr(weighting->Find("description")) + "\n";
+    const JsonDocument& d = s.document;
+    if (!d.is_object() || !d.contains("weighting")) continue;
+    const JsonDocument& weighting = d["weighting"];
+    const std::string source = TextOr(d, "source");
+    if (!weighting.is_object() || !seen.insert(source).second) continue;
+    out += "source " + source + ": samples " + TextOr(weighting, "description") + "\n";
   }
   return out;
 }
@@ -211,7 +202,7 @@ std::string StatusJson(const LatestView& v, const StatusContext& c) {
   }
   json.Key("statistics");
   json.BeginArray();
-  for (const SnapshotRow& s : v.statistics) json.Raw(s.json);
+  for (const SnapshotRow& s : v.statistics) json.Value(s.document);
   json.EndArray();
   json.Key("files");
   json.BeginArray();
@@ -230,85 +221,75 @@ std::string StatusJson(const LatestView& v, const StatusContext& c) {
   return json.text();
 }
 
-std::optional<LatestView> LatestViewFromJson(const JsonValue& d, StatusContext* c) {
-  const JsonValue* statistics = d.Find("statistics");
-  if (!d.is_object() || statistics == nullptr || d.Find("cycle") == nullptr) return std::nullopt;
+std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContext* c) {
+  if (!d.is_object() || !d.contains("cycle") || !d.contains("statistics") ||
+      !d["statistics"].is_array()) {
+    return std::nullopt;
+  }
+  const auto flag = [](const JsonDocument& object, const char* key) {
+    return object.is_object() && object.contains(key) && object[key].is_boolean() &&
+           object[key].get<bool>();
+  };
+  const auto member = [](const JsonDocument& object, const char* key) -> const JsonDocument& {
+    static const JsonDocument kNull;
+    return object.is_object() && object.contains(key) ? object[key] : kNull;
+  };
   LatestView v;
-  v.run_name = TextOr(d.Find("run"));
-  v.cycle = static_cast<std::int64_t>(NumberOr(d.Find("cycle")));
-  v.wall_time = NumberOr(d.Find("evaluated_at"));
-  v.last_sample_time = NumberOr(d.Find("last_sample_time"));
-  v.last_sample_wall_time = NumberOr(d.Find("last_sample_read_at"));
-  const JsonValue* met = d.Find("run_met");
-  v.run_met = met != nullptr && met->boolean();
-  v.remaining_time = kNaN;
-  v.remaining_wall = kNaN;
-  if (const JsonValue* eta = d.Find("time_to_target"); eta && eta->is_object()) {
-    v.remaining_time = NumberOr(eta->Find("simulated"));
-    v.remaining_wall = NumberOr(eta->Find("wall_seconds"));
-  }
-  c->store_path = TextOr(d.Find("store"));
-  c->answered_by = TextOr(d.Find("answered_by"));
-  if (const JsonValue* daemon = d.Find("daemon")) {
-    const double pid = NumberOr(daemon->Find("pid"));
-    const JsonValue* running = daemon->Find("running");
-    c->daemon_pid = !std::isnan(pid) ? static_cast<long>(pid)
-                                     : (running != nullptr && running->boolean() ? -1 : 0);
-  }
-  for (const JsonValue& s : statistics->array()) {
+  v.run_name = TextOr(d, "run");
+  v.cycle = static_cast<std::int64_t>(NumberOr(d, "cycle"));
+  v.wall_time = NumberOr(d, "evaluated_at");
+  v.last_sample_time = NumberOr(d, "last_sample_time");
+  v.last_sample_wall_time = NumberOr(d, "last_sample_read_at");
+  v.run_met = flag(d, "run_met");
+  v.remaining_time = NumberOr(member(d, "time_to_target"), "simulated");
+  v.remaining_wall = NumberOr(member(d, "time_to_target"), "wall_seconds");
+  c->store_path = TextOr(d, "store");
+  c->answered_by = TextOr(d, "answered_by");
+  const JsonDocument& daemon = member(d, "daemon");
+  const double pid = NumberOr(daemon, "pid");
+  c->daemon_pid = !std::isnan(pid) ? static_cast<long>(pid) : (flag(daemon, "running") ? -1 : 0);
+  for (const JsonDocument& s : d["statistics"]) {
     SnapshotRow row;
-    JsonWriter whole;  // as the store keeps it, so that both views render alike
-    whole.Value(s);
-    row.json = whole.text();
-    row.statistic = TextOr(s.Find("name"));
-    if (const JsonValue* group = s.Find("group"); group && group->boolean()) row.target_kind = "group";
+    row.document = s;  // as the store keeps it, so that both views render alike
+    row.statistic = TextOr(s, "name");
+    if (flag(s, "group")) row.target_kind = "group";
     // A profile's summaries: per quantity (with "points") and its momentum balance.
-    if (s.Find("points") != nullptr || s.Find("departure") != nullptr) row.target_kind = "profile";
-    if (s.Find("point") != nullptr) row.profile = TextOr(s.Find("profile"));
-    row.state = TextOr(s.Find("state"));
-    row.state_reason = TextOr(s.Find("state_reason"));
-    row.value = NumberOr(s.Find("mean"));
-    row.half_width = NumberOr(s.Find("half_width"));
-    row.relative_half_width = NumberOr(s.Find("relative_half_width"));
-    row.integrated_time = NumberOr(s.Find("integrated_time"));
-    row.effective_samples = NumberOr(s.Find("effective_samples"));
-    row.integral_time_scale = NumberOr(s.Find("integral_time_scale"));
-    row.averaging_time = NumberOr(s.Find("averaging_time"));
-    row.warmup_end_time = NumberOr(s.Find("warmup_end_time"));
-    row.samples_used = static_cast<std::int64_t>(NumberOr(s.Find("samples_used")));
-    row.last_time = NumberOr(s.Find("last_time"));
-    row.confidence = NumberOr(s.Find("confidence"));
-    row.remaining_time = kNaN;
-    row.remaining_wall = kNaN;
-    if (const JsonValue* eta = s.Find("time_to_target"); eta && eta->is_object()) {
-      row.remaining_time = NumberOr(eta->Find("simulated"));
-      row.remaining_wall = NumberOr(eta->Find("wall_seconds"));
+    if (s.contains("points") || s.contains("departure")) row.target_kind = "profile";
+    if (s.contains("point")) row.profile = TextOr(s, "profile");
+    row.state = TextOr(s, "state");
+    row.state_reason = TextOr(s, "state_reason");
+    row.value = NumberOr(s, "mean");
+    row.half_width = NumberOr(s, "half_width");
+    row.relative_half_width = NumberOr(s, "relative_half_width");
+    row.integrated_time = NumberOr(s, "integrated_time");
+    row.effective_samples = NumberOr(s, "effective_samples");
+    row.integral_time_scale = NumberOr(s, "integral_time_scale");
+    row.averaging_time = NumberOr(s, "averaging_time");
+    row.warmup_end_time = NumberOr(s, "warmup_end_time");
+    row.samples_used = static_cast<std::int64_t>(NumberOr(s, "samples_used"));
+    row.last_time = NumberOr(s, "last_time");
+    row.confidence = NumberOr(s, "confidence");
+    row.remaining_time = NumberOr(member(s, "time_to_target"), "simulated");
+    row.remaining_wall = NumberOr(member(s, "time_to_target"), "wall_seconds");
+    row.reference_verdict = TextOr(member(s, "reference"), "verdict");
+    if (member(s, "target").is_object()) {
+      row.target_kind = TextOr(s["target"], "kind");
+      row.target_value = NumberOr(s["target"], "value");
     }
-    if (const JsonValue* reference = s.Find("reference"); reference && reference->is_object()) {
-      row.reference_verdict = TextOr(reference->Find("verdict"));
-    }
-    if (const JsonValue* target = s.Find("target"); target && target->is_object()) {
-      row.target_kind = TextOr(target->Find("kind"));
-      row.target_value = NumberOr(target->Find("value"));
-    }
-    row.target_half_width = NumberOr(s.Find("target_half_width"));
-    const JsonValue* met_at = s.Find("met_at");
-    row.met_at_time = met_at && met_at->is_object() ? NumberOr(met_at->Find("simulated_time")) : kNaN;
-    row.met_at_wall = met_at && met_at->is_object() ? NumberOr(met_at->Find("wall_time")) : kNaN;
+    row.target_half_width = NumberOr(s, "target_half_width");
+    row.met_at_time = NumberOr(member(s, "met_at"), "simulated_time");
+    row.met_at_wall = NumberOr(member(s, "met_at"), "wall_time");
     v.statistics.push_back(std::move(row));
   }
-  if (const JsonValue* files = d.Find("files")) {
-    for (const JsonValue& f : files->array()) {
-      FileProgress p;
-      p.path = TextOr(f.Find("path"));
-      p.source = TextOr(f.Find("source"));
-      p.rows = static_cast<std::int64_t>(NumberOr(f.Find("rows")));
-      p.bad_lines = static_cast<std::int64_t>(NumberOr(f.Find("bad_lines")));
-      p.last_time = NumberOr(f.Find("last_time"));
-      const JsonValue* vanished = f.Find("vanished");
-      p.vanished = vanished != nullptr && vanished->boolean();
-      v.files.push_back(std::move(p));
-    }
+  for (const JsonDocument& f : member(d, "files").is_array() ? d["files"] : JsonDocument::array()) {
+    FileProgress p;
+    p.path = TextOr(f, "path");
+    p.source = TextOr(f, "source");
+    p.rows = static_cast<std::int64_t>(NumberOr(f, "rows"));
+    p.bad_lines = static_cast<std::int64_t>(NumberOr(f, "bad_lines"));
+    p.last_time = NumberOr(f, "last_time");
+    p.vanished = flag(f, "vanished");
+    v.files.push_back(std::move(p));
   }
   return v;
 }

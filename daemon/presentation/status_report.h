@@ -7,7 +7,7 @@
 #include <optional>
 #include <string>
 
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 #include "store/run_store.h"
 
 namespace plateau {
@@ -23,7 +23,7 @@ std::string StatusTable(const LatestView& view, const StatusContext& context);
 // One line of JSON (no newline).
 std::string StatusJson(const LatestView& view, const StatusContext& context);
 // Reads a StatusJson document back; nullopt when it is not one.
-std::optional<LatestView> LatestViewFromJson(const JsonValue& document, StatusContext* context);
+std::optional<LatestView> LatestViewFromJson(const JsonDocument& document, StatusContext* context);
 
 struct CheckAnswer {
   int exit_code = 2;  // 0 stop, 1 continue, 2 cannot tell

@@ -8,7 +8,7 @@
 #include <fstream>
 #include <random>
 
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 #include "tests/core/channel_dns.h"
 #include "tests/daemon/run_folder.h"
 
@@ -87,7 +87,7 @@ class ProfileIntegration : public testing::RunFolder {
   }
 
   // The status document, once the daemon has read every row and stopped.
-  JsonValue RunToTheEnd() {
+  JsonDocument RunToTheEnd() {
     WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
     EXPECT_TRUE(WaitFor([&] { return Samples() == static_cast<std::int64_t>(kRows); }, 60))
         << testing::ReadAll(Path("watch.log"));
@@ -95,14 +95,14 @@ class ProfileIntegration : public testing::RunFolder {
     EXPECT_EQ(daemon.Wait(20), 0);
     const testing::CommandResult status = Plateau({"status", "--json", Path("run.yaml")});
     std::string error;
-    auto document = JsonValue::Parse(status.out, &error);
+    auto document = ParseJsonDocument(status.out, &error);
     EXPECT_TRUE(document) << error;
-    return document ? *document : JsonValue();
+    return document ? *document : JsonDocument();
   }
 
-  static const JsonValue* Named(const JsonValue& document, const std::string& name) {
-    for (const JsonValue& s : document.Find("statistics")->array()) {
-      if (s.Find("name")->string() == name) return &s;
+  static const JsonDocument* Named(const JsonDocument& document, const std::string& name) {
+    for (const JsonDocument& s : document.at("statistics")) {
+      if (s.at("name").get<std::string>() == name) return &s;
     }
     return nullptr;
   }
@@ -115,26 +115,26 @@ TEST_F(ProfileIntegration, WallUnitProfilesGiveBackThePublishedDns) {
   WriteProbes();
   WriteReference("dns_u_plus.dat", 1.0);
   WriteConfig("dns_u_plus.dat");
-  const JsonValue status = RunToTheEnd();
+  const JsonDocument status = RunToTheEnd();
   ASSERT_TRUE(status.is_object());
 
-  const JsonValue* u_tau = Named(status, "u_tau");
+  const JsonDocument* u_tau = Named(status, "u_tau");
   ASSERT_NE(u_tau, nullptr);
-  EXPECT_NEAR(u_tau->Find("mean")->number(), kUTau, 0.01 * kUTau);
-  EXPECT_LT(std::fabs(u_tau->Find("mean")->number() - kUTau), 3 * u_tau->Find("half_width")->number());
-  EXPECT_NEAR(Named(status, "Re_tau")->Find("mean")->number(), kReTau, 0.01 * kReTau);
+  EXPECT_NEAR(u_tau->at("mean").get<double>(), kUTau, 0.01 * kUTau);
+  EXPECT_LT(std::fabs(u_tau->at("mean").get<double>() - kUTau), 3 * u_tau->at("half_width").get<double>());
+  EXPECT_NEAR(Named(status, "Re_tau")->at("mean").get<double>(), kReTau, 0.01 * kReTau);
 
-  const JsonValue* u = Named(status, "line:U");
+  const JsonDocument* u = Named(status, "line:U");
   ASSERT_NE(u, nullptr);
-  const auto& points = u->Find("points")->array();
+  const auto& points = u->at("points");
   ASSERT_EQ(points.size(), points_.size());
   for (std::size_t p = 0; p < points.size(); ++p) {
-    EXPECT_NEAR(points[p].Find("y_plus")->number(), dns_.y_plus[points_[p]],
+    EXPECT_NEAR(points[p].at("y_plus").get<double>(), dns_.y_plus[points_[p]],
                 0.01 * dns_.y_plus[points_[p]] + 1e-9)
         << p;
   }
   // Each point's 95 % interval in wall units covers the DNS U+: allow two misses in 16.
-  const std::string summary = u->Find("reference_summary")->string();
+  const std::string summary = u->at("reference_summary").get<std::string>();
   int consistent = 0, compared = 0;
   std::sscanf(summary.c_str(), "vs reference: consistent at %d of %d", &consistent, &compared);
   EXPECT_EQ(compared, static_cast<int>(points_.size())) << summary;
@@ -142,14 +142,14 @@ TEST_F(ProfileIntegration, WallUnitProfilesGiveBackThePublishedDns) {
 
   // Common-practice checks on what plateau reports (the DNS itself: 2.66 near y+ 15, -0.72).
   double peak = 0.0, peak_y = 0.0, lowest = 0.0;
-  for (const JsonValue& p : Named(status, "line:uu")->Find("points")->array()) {
-    if (p.Find("value_plus")->number() > peak) {
-      peak = p.Find("value_plus")->number();
-      peak_y = p.Find("y_plus")->number();
+  for (const JsonDocument& p : Named(status, "line:uu")->at("points")) {
+    if (p.at("value_plus").get<double>() > peak) {
+      peak = p.at("value_plus").get<double>();
+      peak_y = p.at("y_plus").get<double>();
     }
   }
-  for (const JsonValue& p : Named(status, "line:uv")->Find("points")->array()) {
-    lowest = std::min(lowest, p.Find("value_plus")->number());
+  for (const JsonDocument& p : Named(status, "line:uv")->at("points")) {
+    lowest = std::min(lowest, p.at("value_plus").get<double>());
   }
   EXPECT_NEAR(std::sqrt(peak), 2.66, 0.1);
   EXPECT_NEAR(peak_y, 15.0, 3.0);
@@ -157,21 +157,21 @@ TEST_F(ProfileIntegration, WallUnitProfilesGiveBackThePublishedDns) {
 
   // The total shear stress line: 0.034 from the three-point derivative on these 16 points, the
   // rest sampling noise of <u'v'>+ (about 0.025 a point).
-  const JsonValue* balance = Named(status, "line:momentum_balance");
+  const JsonDocument* balance = Named(status, "line:momentum_balance");
   ASSERT_NE(balance, nullptr);
-  ASSERT_NE(balance->Find("largest"), nullptr) << balance->Find("state_reason")->string();
-  EXPECT_LT(balance->Find("largest")->number(), 0.15);
+  ASSERT_NE(FindMember(*balance, "largest"), nullptr) << balance->at("state_reason").get<std::string>();
+  EXPECT_LT(balance->at("largest").get<double>(), 0.15);
 }
 
 TEST_F(ProfileIntegration, AReferenceTenPercentOffIsABiasNotSamplingError) {
   WriteProbes();
   WriteReference("shifted.dat", 1.1);
   WriteConfig("shifted.dat");
-  const JsonValue status = RunToTheEnd();
+  const JsonDocument status = RunToTheEnd();
   ASSERT_TRUE(status.is_object());
-  const JsonValue* u = Named(status, "line:U");
+  const JsonDocument* u = Named(status, "line:U");
   ASSERT_NE(u, nullptr);
-  const std::string summary = u->Find("reference_summary")->string();
+  const std::string summary = u->at("reference_summary").get<std::string>();
   int consistent = -1, compared = 0;
   std::sscanf(summary.c_str(), "vs reference: consistent at %d of %d", &consistent, &compared);
   EXPECT_LE(consistent, 2) << summary;  // the points at the wall, where U+ and its 10 % are tiny

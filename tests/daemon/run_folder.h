@@ -104,9 +104,8 @@ class RunFolder : public ::testing::Test {
   std::int64_t Samples(std::size_t index = 0) {
     const auto v = Latest();
     if (!v || v->statistics.size() <= index) return -1;
-    const std::string& json = v->statistics[index].json;
-    const std::size_t at = json.find("\"samples_total\":");
-    return at == std::string::npos ? -1 : std::stoll(json.substr(at + 16));
+    const nlohmann::ordered_json& document = v->statistics[index].document;
+    return document.contains("samples_total") ? document["samples_total"].get<std::int64_t>() : -1;
   }
 
   std::filesystem::path dir_;

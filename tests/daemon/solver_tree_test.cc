@@ -12,7 +12,7 @@
 
 #include "config/config_loader.h"
 #include "daemon/commands/analyze_command.h"
-#include "daemon/presentation/json_value.h"
+#include "daemon/presentation/json_document.h"
 #include "tests/daemon/run_folder.h"
 #include "tests/daemon/solver_tree.h"
 
@@ -33,15 +33,15 @@ class SolverTreeRun : public testing::RunFolder {
   }
 
   // `plateau analyze ARGS --json` in process, parsed.
-  JsonValue Analyze(const std::vector<std::string>& args) {
+  JsonDocument Analyze(const std::vector<std::string>& args) {
     std::vector<std::string> all = args;
     all.push_back("--json");
     std::ostringstream out, err;
     EXPECT_EQ(RunAnalyzeCommand(all, out, err), 0) << err.str();
     std::string error;
-    auto json = JsonValue::Parse(out.str(), &error);
+    auto json = ParseJsonDocument(out.str(), &error);
     EXPECT_TRUE(json.has_value()) << error;
-    return json ? *json : JsonValue();
+    return json ? *json : JsonDocument();
   }
 
   // The daemon's log beside the config: init names the run after the folder it ran in.
@@ -54,10 +54,10 @@ class SolverTreeRun : public testing::RunFolder {
 
 // Statistic name -> its JSON object, for every statistic of an analyze or status document (which
 // must outlive the map).
-std::map<std::string, const JsonValue*> ByName(const JsonValue& document) {
-  std::map<std::string, const JsonValue*> named;
-  if (const JsonValue* list = document.Find("statistics")) {
-    for (const JsonValue& s : list->array()) named[s.Find("name")->string()] = &s;
+std::map<std::string, const JsonDocument*> ByName(const JsonDocument& document) {
+  std::map<std::string, const JsonDocument*> named;
+  if (const JsonDocument* list = FindMember(document, "statistics")) {
+    for (const JsonDocument& s : *list) named[s.at("name").get<std::string>()] = &s;
   }
   return named;
 }
@@ -128,12 +128,9 @@ TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncut
     if (!v) return false;
     std::size_t counted = 0;
     for (const SnapshotRow& s : v->statistics) {
-      if (s.json.find("\"samples_total\":") == std::string::npos) continue;
+      if (FindMember(s.document, "samples_total") == nullptr) continue;
       ++counted;
-      if (s.json.find("\"samples_total\":" + std::to_string(SolverTree::kRows) + ",") ==
-          std::string::npos) {
-        return false;
-      }
+      if (NumberOr(s.document, "samples_total") != SolverTree::kRows) return false;
     }
     return counted == 3 * 3 + 15 + 5 * 6;
   };
@@ -141,7 +138,7 @@ TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncut
   const auto status = Plateau({"status", Path("run.yaml"), "--json"});
   ASSERT_EQ(status.exit_code, 0) << status.err;
   std::string error;
-  const auto document = JsonValue::Parse(status.out, &error);
+  const auto document = ParseJsonDocument(status.out, &error);
   ASSERT_TRUE(document.has_value()) << error;
   const auto watched = ByName(*document);
   daemon.Signal(SIGTERM);
@@ -150,16 +147,16 @@ TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncut
   // init names a column used by several series "<source>/<column>", else by the column.
   std::size_t compared = 0;
   for (const SolverTree::SeriesText& series : tree_.series()) {
-    const JsonValue uncut = Analyze({Path("uncut/" + series.folder + "/" + series.file)});
+    const JsonDocument uncut = Analyze({Path("uncut/" + series.folder + "/" + series.file)});
     for (const auto& [column, analyzed] : ByName(uncut)) {
       auto it = watched.find(series.folder + "/" + column);
       if (it == watched.end()) it = watched.find(column);
       ASSERT_NE(it, watched.end()) << series.folder << " " << column;
-      EXPECT_EQ(it->second->Find("source")->string(), series.folder);
-      EXPECT_EQ(it->second->Find("samples_total")->number(), SolverTree::kRows);
+      EXPECT_EQ(it->second->at("source").get<std::string>(), series.folder);
+      EXPECT_EQ(it->second->at("samples_total").get<double>(), SolverTree::kRows);
       for (const char* key : {"mean", "half_width", "integrated_time"}) {
-        const double expected = analyzed->Find(key)->number();
-        EXPECT_NEAR(it->second->Find(key)->number(), expected, 1e-12 * std::fabs(expected))
+        const double expected = analyzed->at(key).get<double>();
+        EXPECT_NEAR(it->second->at(key).get<double>(), expected, 1e-12 * std::fabs(expected))
             << column << " " << key;
       }
       ++compared;
@@ -172,24 +169,24 @@ TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncut
 }
 
 TEST_F(SolverTreeRun, AnalyzeReadsTheWholeTreeInOneCallOneSectionPerSeries) {
-  const JsonValue tree = Analyze({Path("output")});
-  const JsonValue* sources = tree.Find("sources");
+  const JsonDocument tree = Analyze({Path("output")});
+  const JsonDocument* sources = FindMember(tree, "sources");
   ASSERT_NE(sources, nullptr);
-  ASSERT_EQ(sources->array().size(), 4u);
+  ASSERT_EQ(sources->size(), 4u);
   std::map<std::string, int> per_source;
-  for (const JsonValue& s : tree.Find("statistics")->array()) {
-    ++per_source[s.Find("source")->string()];
-    EXPECT_EQ(s.Find("samples_total")->number(), SolverTree::kRows) << s.Find("name")->string();
+  for (const JsonDocument& s : tree.at("statistics")) {
+    ++per_source[s.at("source").get<std::string>()];
+    EXPECT_EQ(s.at("samples_total").get<double>(), SolverTree::kRows) << s.at("name").get<std::string>();
   }
   EXPECT_EQ(per_source["wallShearLower"], 3);
   EXPECT_EQ(per_source["wallShearUpper"], 3);
   EXPECT_EQ(per_source["bulkVelocity"], 3);
   EXPECT_EQ(per_source["probes"], 15);
-  ASSERT_EQ(tree.Find("left_out")->array().size(), 2u);
+  ASSERT_EQ(tree.at("left_out").size(), 2u);
   // Each series' restart overlap skipped, never another series' rows.
   std::size_t overlap = 0;
-  for (const JsonValue& f : tree.Find("files")->array()) {
-    overlap += static_cast<std::size_t>(f.Find("restart_overlap")->number());
+  for (const JsonDocument& f : tree.at("files")) {
+    overlap += static_cast<std::size_t>(f.at("restart_overlap").get<double>());
   }
   EXPECT_EQ(overlap, 4 * SolverTree::kOverlap);
 
@@ -217,18 +214,18 @@ TEST_F(SolverTreeRun, RestartSegmentWithAChangedHeaderIsNamedWithTheFirstAndNotM
     rows += "\n";
   }
   Append("output/probes/60/U", header + rows);
-  const JsonValue tree = Analyze({Path("output")});
+  const JsonDocument tree = Analyze({Path("output")});
   bool named = false;
-  for (const JsonValue& f : tree.Find("left_out")->array()) {
-    const std::string& reason = f.Find("reason")->string();
-    if (f.Find("path")->string() == Path("output/probes/60/U")) {
+  for (const JsonDocument& f : tree.at("left_out")) {
+    const std::string& reason = f.at("reason").get<std::string>();
+    if (f.at("path").get<std::string>() == Path("output/probes/60/U")) {
       named = reason.find("differs from that of " + Path("output/probes/0/U")) !=
               std::string::npos;
     }
   }
   EXPECT_TRUE(named) << "the changed segment is not left out naming the first one";
-  for (const JsonValue& s : tree.Find("statistics")->array()) {
-    EXPECT_EQ(s.Find("samples_total")->number(), SolverTree::kRows);  // nothing of it merged
+  for (const JsonDocument& s : tree.at("statistics")) {
+    EXPECT_EQ(s.at("samples_total").get<double>(), SolverTree::kRows);  // nothing of it merged
   }
 
   // The daemon says the same in its log and ignores the file.
@@ -258,10 +255,10 @@ TEST_F(SolverTreeRun, RestartSegmentWithAMovedProbeIsNotMergedEither) {
     rows += "\n";
   }
   Append("output/probes/60/U", moved_header + rows);
-  const JsonValue tree = Analyze({Path("output")});
+  const JsonDocument tree = Analyze({Path("output")});
   bool left_out = false;
-  for (const JsonValue& f : tree.Find("left_out")->array()) {
-    left_out = left_out || f.Find("path")->string() == Path("output/probes/60/U");
+  for (const JsonDocument& f : tree.at("left_out")) {
+    left_out = left_out || f.at("path").get<std::string>() == Path("output/probes/60/U");
   }
   EXPECT_TRUE(left_out);
 
@@ -282,7 +279,7 @@ TEST_F(SolverTreeRun, RestartSegmentWithAMovedProbeIsNotMergedEither) {
   ASSERT_TRUE(latest.has_value());
   for (const SnapshotRow& row : latest->statistics) {
     if (row.statistic.rfind("U[", 0) == 0) {
-      EXPECT_NE(row.json.find("\"samples_total\":6000,"), std::string::npos) << row.statistic;
+      EXPECT_EQ(NumberOr(row.document, "samples_total"), 6000) << row.statistic;
     }
   }
 }
@@ -322,32 +319,32 @@ statistics:
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
   std::string error;
-  const auto document = JsonValue::Parse(status.out, &error);
+  const auto document = ParseJsonDocument(status.out, &error);
   ASSERT_TRUE(document.has_value()) << error << status.out;
   const auto named = ByName(*document);
   ASSERT_EQ(named.count("tau_w"), 1u);
   ASSERT_EQ(named.count("tau_w - reference"), 1u);  // the joint difference, averaged per sample
-  const JsonValue& tau = *named.at("tau_w");
+  const JsonDocument& tau = *named.at("tau_w");
   // The scale applies before any statistic: the same number analyze gives with --scale, and the
   // negative of the unscaled one.
-  const JsonValue analyzed_document =
+  const JsonDocument analyzed_document =
       Analyze({Path("balance/0/balance.dat"), "--scale", "wallShear=-1"});
-  const JsonValue unscaled_document = Analyze({Path("balance/0/balance.dat")});
+  const JsonDocument unscaled_document = Analyze({Path("balance/0/balance.dat")});
   const auto analyzed = ByName(analyzed_document);
   const auto unscaled = ByName(unscaled_document);
-  const double mean = tau.Find("mean")->number();
+  const double mean = tau.at("mean").get<double>();
   EXPECT_GT(mean, 0.0);
-  EXPECT_NEAR(mean, analyzed.at("wallShear")->Find("mean")->number(), 1e-12 * mean);
-  EXPECT_NEAR(mean, -unscaled.at("wallShear")->Find("mean")->number(), 1e-12 * mean);
-  const JsonValue* reference = tau.Find("reference");
+  EXPECT_NEAR(mean, analyzed.at("wallShear")->at("mean").get<double>(), 1e-12 * mean);
+  EXPECT_NEAR(mean, -unscaled.at("wallShear")->at("mean").get<double>(), 1e-12 * mean);
+  const JsonDocument* reference = FindMember(tau, "reference");
   ASSERT_NE(reference, nullptr);
-  EXPECT_EQ(reference->Find("method")->string(), "joint_series");
-  EXPECT_EQ(reference->Find("statistic")->string(), "dpdx");
-  EXPECT_EQ(reference->Find("half_width")->number(),
-            named.at("tau_w - reference")->Find("half_width")->number());
+  EXPECT_EQ(reference->at("method").get<std::string>(), "joint_series");
+  EXPECT_EQ(reference->at("statistic").get<std::string>(), "dpdx");
+  EXPECT_EQ(reference->at("half_width").get<double>(),
+            named.at("tau_w - reference")->at("half_width").get<double>());
   // Correlated: the joint interval of the difference is much narrower than tau_w's own.
-  EXPECT_LT(reference->Find("half_width")->number(), 0.5 * tau.Find("half_width")->number());
-  EXPECT_NE(reference->Find("words")->string().find("sample by sample"), std::string::npos);
+  EXPECT_LT(reference->at("half_width").get<double>(), 0.5 * tau.at("half_width").get<double>());
+  EXPECT_NE(reference->at("words").get<std::string>().find("sample by sample"), std::string::npos);
 }
 
 // A wake probe under a Courant-number controlled step, restarted once (the fixture of
@@ -387,34 +384,33 @@ statistics:
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
   std::string error;
-  const auto document = JsonValue::Parse(status.out, &error);
+  const auto document = ParseJsonDocument(status.out, &error);
   ASSERT_TRUE(document.has_value()) << error << status.out;
-  const JsonValue& u = *ByName(*document).at("u");
-  const JsonValue* weighting = u.Find("weighting");
+  const JsonDocument& u = *ByName(*document).at("u");
+  const JsonDocument* weighting = FindMember(u, "weighting");
   ASSERT_NE(weighting, nullptr) << status.out;
-  EXPECT_TRUE(weighting->Find("time_weighted")->boolean());
-  EXPECT_EQ(weighting->Find("gaps")->Find("count")->number(), 0.0);
-  EXPECT_LT(weighting->Find("spacing")->Find("min")->number(),
-            0.7 * weighting->Find("spacing")->Find("max")->number());
-  const double scale = u.Find("integral_time_scale")->number();
-  EXPECT_NEAR(scale, u.Find("integrated_time")->number() * u.Find("unit_time")->number(),
+  EXPECT_TRUE(weighting->at("time_weighted").get<bool>());
+  EXPECT_EQ(weighting->at("gaps").at("count").get<double>(), 0.0);
+  EXPECT_LT(weighting->at("spacing").at("min").get<double>(),
+            0.7 * weighting->at("spacing").at("max").get<double>());
+  const double scale = u.at("integral_time_scale").get<double>();
+  EXPECT_NEAR(scale, u.at("integrated_time").get<double>() * u.at("unit_time").get<double>(),
               1e-12 * scale);
-  EXPECT_NEAR(u.Find("integral_time_flow_throughs")->number(), scale / 2.0, 1e-12 * scale);
-  EXPECT_GT(u.Find("averaging_flow_throughs")->number(), 1.0);
+  EXPECT_NEAR(u.at("integral_time_flow_throughs").get<double>(), scale / 2.0, 1e-12 * scale);
+  EXPECT_GT(u.at("averaging_flow_throughs").get<double>(), 1.0);
   EXPECT_NE(table.out.find("source wake: samples weighted by simulated time"), std::string::npos)
       << table.out;
 
-  const JsonValue analyzed_document = Analyze({fixture, "--covariance", "u,v"});
+  const JsonDocument analyzed_document = Analyze({fixture, "--covariance", "u,v"});
   const auto analyzed = ByName(analyzed_document);
   ASSERT_EQ(analyzed.count("u"), 1u);
-  EXPECT_TRUE(analyzed_document.Find("sources")->array()[0].Find("weighting")->Find(
-      "time_weighted")->boolean());
+  EXPECT_TRUE(analyzed_document.at("sources")[0].at("weighting").at("time_weighted").get<bool>());
   for (const auto& [watched_name, analyzed_name] :
        std::vector<std::pair<std::string, std::string>>{{"u", "u"}, {"uv", "cov(u,v)"}}) {
-    const JsonValue& w = *ByName(*document).at(watched_name);
+    const JsonDocument& w = *ByName(*document).at(watched_name);
     for (const char* key : {"mean", "half_width", "integrated_time", "integral_time_scale"}) {
-      const double expected = analyzed.at(analyzed_name)->Find(key)->number();
-      EXPECT_NEAR(w.Find(key)->number(), expected, 1e-12 * std::fabs(expected))
+      const double expected = analyzed.at(analyzed_name)->at(key).get<double>();
+      EXPECT_NEAR(w.at(key).get<double>(), expected, 1e-12 * std::fabs(expected))
           << watched_name << " " << key;
     }
   }

@@ -1,4 +1,4 @@
-// libFuzzer target for the query socket's request parser (daemon/query_request, on JsonValue):
+// libFuzzer target for the query socket's request parser (daemon/serving/query_request, on nlohmann-json):
 // whatever arrives on the socket, it returns a request or an error message, never crashes, never
 // recurses without bound. A request without an error, or an error without a message, aborts.
 #include <cstdint>

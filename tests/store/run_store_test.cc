@@ -39,7 +39,7 @@ class RunStoreTest : public ::testing::Test {
     s.half_width = std::nan("");
     s.target_kind = "relative";
     s.target_value = 0.01;
-    s.json = "{\"name\":\"tau\",\"cycle\":" + std::to_string(n) + "}";
+    s.document = {{"name", "tau"}, {"cycle", n}};
     r.snapshots = {s};
     EventRow e;
     e.wall_time = 1000.0 + n;
@@ -79,7 +79,7 @@ TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
   EXPECT_EQ(latest->run_name, "ch420");
   EXPECT_EQ(latest->cycle, 2);
   ASSERT_EQ(latest->statistics.size(), 1u);
-  EXPECT_EQ(latest->statistics[0].json, "{\"name\":\"tau\",\"cycle\":2}");
+  EXPECT_EQ(latest->statistics[0].document.dump(), "{\"name\":\"tau\",\"cycle\":2}");
   EXPECT_EQ(latest->statistics[0].state_reason, "half-width 2 %");
   EXPECT_TRUE(std::isnan(latest->statistics[0].half_width));
   EXPECT_EQ(latest->files.at(0).offset, 2468);
@@ -254,7 +254,7 @@ TEST_F(RunStoreTest, ReaderNeverSeesHalfACycle) {
     const auto latest = reader->ReadLatest(&status);
     ASSERT_TRUE(latest);
     // Whatever cycle it sees, its snapshot JSON and file offset belong to that same cycle.
-    EXPECT_EQ(latest->statistics.at(0).json,
+    EXPECT_EQ(latest->statistics.at(0).document.dump(),
               "{\"name\":\"tau\",\"cycle\":" + std::to_string(latest->cycle) + "}");
     EXPECT_EQ(latest->files.at(0).offset, 1234 * latest->cycle);
   }
