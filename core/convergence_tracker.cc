@@ -1,9 +1,10 @@
 #include "core/convergence_tracker.h"
 
 #include <algorithm>
-
+#include <array>
 #include <cmath>
 #include <limits>
+#include <utility>
 
 #include "core/message_number.h"
 
@@ -14,26 +15,31 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 std::string Percent(double fraction) { return MessageNumber(100.0 * fraction) + " %"; }
 
+constexpr std::array<std::pair<ConvergenceState, std::string_view>, 8> kStateNames{{
+    {ConvergenceState::kNoData, "no_data"},
+    {ConvergenceState::kNotEnoughData, "not_enough_data"},
+    {ConvergenceState::kWarmingUp, "warming_up"},
+    {ConvergenceState::kDrifting, "drifting"},
+    {ConvergenceState::kConverging, "converging"},
+    {ConvergenceState::kMet, "met"},
+    {ConvergenceState::kMonitored, "monitored"},
+    {ConvergenceState::kColumnMissing, "column_missing"},
+}};
+
 }  // namespace
 
 std::string_view ConvergenceStateName(ConvergenceState state) {
-  switch (state) {
-    case ConvergenceState::kNoData:
-      return "no_data";
-    case ConvergenceState::kNotEnoughData:
-      return "not_enough_data";
-    case ConvergenceState::kWarmingUp:
-      return "warming_up";
-    case ConvergenceState::kDrifting:
-      return "drifting";
-    case ConvergenceState::kConverging:
-      return "converging";
-    case ConvergenceState::kMet:
-      return "met";
-    case ConvergenceState::kMonitored:
-      return "monitored";
+  for (const auto& [s, name] : kStateNames) {
+    if (s == state) return name;
   }
   return "unknown";
+}
+
+std::optional<ConvergenceState> ConvergenceStateFromName(std::string_view name) {
+  for (const auto& [s, n] : kStateNames) {
+    if (n == name) return s;
+  }
+  return std::nullopt;
 }
 
 ConvergenceTracker::ConvergenceTracker(std::string statistic, std::optional<Target> target,

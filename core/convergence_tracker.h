@@ -37,11 +37,14 @@ enum class ConvergenceState {
   kConverging,     // an interval, the target not (yet, or no longer) held long enough
   kMet,            // target held for `confirmations` evaluations
   kMonitored,      // estimated, no target set
+  // Set by the reader, never by the tracker: a configured column is not in the source's files.
+  kColumnMissing,
 };
 
-// Stable names for JSON and tables: no_data, not_enough_data, warming_up, drifting, converging,
-// met, monitored.
+// Stable names for JSON, tables and the store: no_data, not_enough_data, warming_up, drifting,
+// converging, met, monitored, column_missing.
 std::string_view ConvergenceStateName(ConvergenceState state);
+std::optional<ConvergenceState> ConvergenceStateFromName(std::string_view name);
 
 struct ConvergenceEvent {
   EventKind kind;  // kMet, kLost or kDrift

@@ -10,6 +10,29 @@
 namespace plateau {
 namespace {
 
+// The target_kind column holds the target's kind for a statistic ("relative", "absolute", or ""
+// without one) and the row's kind for the others ("group", "profile"), as since schema 1.
+std::string TargetKindColumn(const SnapshotRow& row) {
+  if (row.kind == RowKind::kGroup) return "group";
+  if (row.kind == RowKind::kProfileSummary) return "profile";
+  if (!row.target_kind) return "";
+  return *row.target_kind == Target::Kind::kRelative ? "relative" : "absolute";
+}
+
+void ReadTargetKindColumn(const std::string& text, SnapshotRow& row) {
+  row.kind = text == "group"     ? RowKind::kGroup
+             : text == "profile" ? RowKind::kProfileSummary
+                                 : RowKind::kStatistic;
+  row.target_kind = text == "relative"   ? std::optional(Target::Kind::kRelative)
+                    : text == "absolute" ? std::optional(Target::Kind::kAbsolute)
+                                         : std::nullopt;
+}
+
+// The states a store holds are those this build writes (the schema version guards the rest).
+ConvergenceState StateColumn(const std::string& text) {
+  return ConvergenceStateFromName(text).value_or(ConvergenceState::kNoData);
+}
+
 // Schema scripts by version: kMigrations[v - 1] takes a store from version v - 1 to v. A new
 // version appends a script (ALTER TABLE, new tables) and raises kSchemaVersion; old stores are
 // brought forward on open, in order, each step in its own transaction.
@@ -317,7 +340,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       snapshot->Bind(1, r.cycle);
       snapshot->Bind(2, position);
       snapshot->Bind(3, row.statistic);
-      snapshot->Bind(4, row.state);
+      snapshot->Bind(4, std::string(ConvergenceStateName(row.state)));
       snapshot->Bind(5, row.state_reason);
       snapshot->Bind(6, row.value);
       snapshot->Bind(7, row.half_width);
@@ -328,7 +351,7 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
       snapshot->Bind(12, row.samples_used);
       snapshot->Bind(13, row.last_time);
       snapshot->Bind(14, row.confidence);
-      snapshot->Bind(15, row.target_kind);
+      snapshot->Bind(15, TargetKindColumn(row));
       snapshot->Bind(16, row.target_value);
       snapshot->Bind(17, row.target_half_width);
       snapshot->Bind(18, row.met_at_time);
@@ -525,7 +548,7 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
     while (rows->Step()) {
       SnapshotRow row;
       row.statistic = rows->ColumnText(0);
-      row.state = rows->ColumnText(1);
+      row.state = StateColumn(rows->ColumnText(1));
       row.state_reason = rows->ColumnText(2);
       row.value = rows->ColumnDouble(3);
       row.half_width = rows->ColumnDouble(4);
@@ -536,7 +559,7 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       row.samples_used = rows->ColumnInt(9);
       row.last_time = rows->ColumnDouble(10);
       row.confidence = rows->ColumnDouble(11);
-      row.target_kind = rows->ColumnText(12);
+      ReadTargetKindColumn(rows->ColumnText(12), row);
       row.target_value = rows->ColumnDouble(13);
       row.target_half_width = rows->ColumnDouble(14);
       row.met_at_time = rows->ColumnDouble(15);
@@ -619,7 +642,7 @@ std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
     h.wall_time = query->ColumnDouble(1);
     SnapshotRow& s = h.snapshot;
     s.statistic = query->ColumnText(2);
-    s.state = query->ColumnText(3);
+    s.state = StateColumn(query->ColumnText(3));
     s.state_reason = query->ColumnText(4);
     s.value = query->ColumnDouble(5);
     s.half_width = query->ColumnDouble(6);
@@ -630,7 +653,7 @@ std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
     s.samples_used = query->ColumnInt(11);
     s.last_time = query->ColumnDouble(12);
     s.confidence = query->ColumnDouble(13);
-    s.target_kind = query->ColumnText(14);
+    ReadTargetKindColumn(query->ColumnText(14), s);
     s.target_value = query->ColumnDouble(15);
     s.target_half_width = query->ColumnDouble(16);
     s.remaining_time = query->ColumnDouble(17);

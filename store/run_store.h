@@ -15,6 +15,7 @@
 #include <unordered_map>
 #include <vector>
 
+#include "core/convergence_tracker.h"
 #include "core/event_kind.h"
 #include "core/status.h"
 #include "store/sqlite_connection.h"
@@ -39,10 +40,18 @@ struct FileProgress {
   std::string signature;
 };
 
+// What a snapshot row stands for. A profile's point is a kStatistic with `profile` set.
+enum class RowKind {
+  kStatistic,       // a configured statistic, or one derived from them (u_tau, Re_tau)
+  kProfileSummary,  // a profile's quantity over its points, or its momentum balance
+  kGroup,           // a group's joint standing
+};
+
 // One statistic at one cycle: the numbers worth a history, and the full JSON object of status.
 struct SnapshotRow {
   std::string statistic;
-  std::string state;
+  RowKind kind = RowKind::kStatistic;
+  ConvergenceState state = ConvergenceState::kNoData;
   std::string state_reason;
   double value = 0.0;
   double half_width = 0.0;
@@ -57,7 +66,7 @@ struct SnapshotRow {
   std::int64_t samples_used = 0;
   double last_time = 0.0;
   double confidence = 0.0;
-  std::string target_kind;  // relative, absolute, or empty without a target
+  std::optional<Target::Kind> target_kind;  // nullopt without a target
   double target_value = 0.0;
   double target_half_width = 0.0;
   double met_at_time = 0.0;  // NaN while not met

@@ -73,10 +73,11 @@ std::vector<const HistoryRow*> Thinned(const std::vector<const HistoryRow*>& row
 
 std::string StatisticSection(const SnapshotRow& latest, const JsonDocument& json,
                              const std::vector<const HistoryRow*>& history) {
+  const std::string state(ConvergenceStateName(latest.state));
   std::string html = "<h3>" + Html(latest.statistic) + "</h3><p>";
   html += Html(FormatValue(latest.value) + " " + FormatHalfWidth(latest.half_width)) + " at " +
           Html(FormatPercent(latest.confidence)) + " confidence; <span class=\"state-" +
-          Html(latest.state) + "\">" + Html(latest.state) + "</span>";
+          state + "\">" + state + "</span>";
   if (!latest.state_reason.empty()) html += ": " + Html(latest.state_reason);
   if (const std::string decided = TextOr(json, "decided_by"); !decided.empty()) {
     html += "; decided by " + Html(decided);
@@ -256,10 +257,11 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
           "and licensed practice.</p>";
   std::string groups_html, statistics_html, profiles_html;
   for (const SnapshotRow& s : latest->statistics) {
-    if (s.target_kind == "group") {
-      groups_html += "<tr><td>" + Html(s.statistic) + "</td><td>" + Html(s.state) + "</td><td>" +
+    if (s.kind == RowKind::kGroup) {
+      groups_html += "<tr><td>" + Html(s.statistic) + "</td><td>" +
+                     std::string(ConvergenceStateName(s.state)) + "</td><td>" +
                      Html(s.state_reason) + "</td></tr>";
-    } else if (s.target_kind == "profile") {
+    } else if (s.kind == RowKind::kProfileSummary) {
       if (s.document.is_object()) profiles_html += ProfileSection(s.document);
     } else if (s.profile.empty()) {
       statistics_html += StatisticSection(s, s.document, by_statistic[s.statistic]);
@@ -287,7 +289,7 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
     for (const HistoryRow& h : history) {
       const SnapshotRow& s = h.snapshot;
       csv << h.cycle << "," << CsvNumber(h.wall_time) << "," << CsvField(s.statistic) << ","
-          << CsvField(s.profile) << "," << s.state << "," << CsvNumber(s.value) << ","
+          << CsvField(s.profile) << "," << ConvergenceStateName(s.state) << "," << CsvNumber(s.value) << ","
           << CsvNumber(s.half_width) << "," << CsvNumber(s.relative_half_width) << ","
           << CsvNumber(s.integrated_time) << "," << CsvNumber(s.effective_samples) << ","
           << CsvNumber(s.warmup_end_time) << "," << s.samples_used << "," << CsvNumber(s.last_time)

@@ -8,6 +8,7 @@
 
 #include "core/derived_estimate.h"
 #include "core/profile_analysis.h"
+#include "daemon/monitoring/snapshot_rows.h"
 #include "daemon/presentation/analysis_report.h"
 #include "daemon/presentation/number_format.h"
 #include "daemon/presentation/json_writer.h"
@@ -20,38 +21,18 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 // Three significant digits: positions and departures in sentences.
 std::string Short(double value) { return PrintfNumber("%.3g", value); }
 
-SnapshotRow EmptyRow(const std::string& name, const std::string& kind) {
-  SnapshotRow row;
-  row.statistic = name;
-  row.target_kind = kind;
-  row.value = row.half_width = row.relative_half_width = kNaN;
-  row.integrated_time = row.effective_samples = row.warmup_end_time = row.last_time = kNaN;
-  row.confidence = row.target_value = row.target_half_width = kNaN;
-  row.met_at_time = row.met_at_wall = row.remaining_time = row.remaining_wall = kNaN;
-  return row;
-}
-
 // A derived statistic (u_tau, Re_tau) as a monitored row.
 SnapshotRow DerivedRow(const StatisticEstimate& e, const std::string& derived_from) {
-  SnapshotRow row = EmptyRow(e.name, "");
-  row.state = e.state == EstimateState::kEstimated ? "monitored"
-              : e.state == EstimateState::kNotEnoughData ? "not_enough_data"
-                                                         : "no_data";
+  SnapshotRow row = EstimateRow(e);
+  row.state = e.state == EstimateState::kEstimated       ? ConvergenceState::kMonitored
+              : e.state == EstimateState::kNotEnoughData ? ConvergenceState::kNotEnoughData
+                                                         : ConvergenceState::kNoData;
   row.state_reason = e.state == EstimateState::kEstimated ? "derived from " + derived_from
                                                           : e.state_reason;
-  row.value = e.value;
-  row.half_width = e.half_width;
-  row.relative_half_width = e.relative_half_width;
-  row.integrated_time = e.integrated_time;
-  row.effective_samples = e.effective_samples;
-  row.warmup_end_time = e.warmup_end_time;
-  row.samples_used = static_cast<std::int64_t>(e.samples_used);
-  row.last_time = e.last_time;
-  row.confidence = e.confidence;
   JsonWriter json;
   json.BeginObject();
   WriteEstimateFields(json, e, {});
-  json.Field("state", row.state);
+  json.Field("state", ConvergenceStateName(row.state));
   json.Field("state_reason", row.state_reason);
   json.Field("derived_from", derived_from);
   json.EndObject();
@@ -135,7 +116,7 @@ std::vector<SnapshotRow> ProfileSummaries::Rows(const std::vector<Entry>& entrie
 SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::string& q,
                                           const std::vector<Entry>& points,
                                           const StatisticEstimate& u_tau) const {
-  SnapshotRow row = EmptyRow(p.name + ":" + q, "profile");
+  SnapshotRow row = BlankRow(p.name + ":" + q, RowKind::kProfileSummary);
   const bool wall_units = u_tau.state == EstimateState::kEstimated && config_.wall_units;
   const int power = WallUnitPower(q);
   const double scale = wall_units ? std::pow(u_tau.value, power) : 1.0;
@@ -163,7 +144,7 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
     const double relative_u = wall_units ? u_tau.relative_half_width : 0.0;
     const double half_width_plus =
         std::hypot(s.half_width / scale, power * std::fabs(value_plus) * relative_u);
-    const bool point_met = e.row->state == "met";
+    const bool point_met = e.row->state == ConvergenceState::kMet;
     if (e.config->target) {
       ++targeted;
       met += point_met;
@@ -184,7 +165,7 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
     json.Field("relative_half_width", s.relative_half_width);
     json.Field("value_plus", wall_units ? value_plus : kNaN);
     json.Field("half_width_plus", wall_units ? half_width_plus : kNaN);
-    json.Field("state", e.row->state);
+    json.Field("state", ConvergenceStateName(e.row->state));
     if (reference != references_.end()) {
       const double x = wall_units ? y_plus : e.config->position;
       const double expected = Interpolate(reference->second, x);
@@ -213,10 +194,10 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
   json.EndArray();
   const int n = static_cast<int>(points.size());
   if (targeted == 0) {
-    row.state = "monitored";
+    row.state = ConvergenceState::kMonitored;
     row.state_reason = std::to_string(n) + " points, no target";
   } else {
-    row.state = met == targeted ? "met" : "converging";
+    row.state = met == targeted ? ConvergenceState::kMet : ConvergenceState::kConverging;
     row.state_reason = std::to_string(met) + " of " + std::to_string(targeted) + " points met";
   }
   if (worst) {
@@ -246,7 +227,7 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
   }
   json.Field("points_met", met);
   json.Field("points_with_targets", targeted);
-  json.Field("state", row.state);
+  json.Field("state", ConvergenceStateName(row.state));
   json.Field("state_reason", row.state_reason);
   json.EndObject();
   row.document = json.TakeDocument();
@@ -256,8 +237,8 @@ SnapshotRow ProfileSummaries::QuantityRow(const ProfileConfig& p, const std::str
 SnapshotRow ProfileSummaries::MomentumRow(const ProfileConfig& p,
                                           const std::vector<Entry>& entries,
                                           const StatisticEstimate& u_tau) const {
-  SnapshotRow row = EmptyRow(p.name + ":momentum_balance", "profile");
-  row.state = "monitored";
+  SnapshotRow row = BlankRow(p.name + ":momentum_balance", RowKind::kProfileSummary);
+  row.state = ConvergenceState::kMonitored;
   std::vector<double> y, u, uv;
   for (std::size_t i = 0; i < p.positions.size(); ++i) {
     double u_i = kNaN, uv_i = kNaN;
@@ -302,7 +283,7 @@ SnapshotRow ProfileSummaries::MomentumRow(const ProfileConfig& p,
     json.EndArray();
     json.Field("largest", std::fabs(row.value));
   }
-  json.Field("state", row.state);
+  json.Field("state", ConvergenceStateName(row.state));
   json.Field("state_reason", row.state_reason);
   json.EndObject();
   row.document = json.TakeDocument();

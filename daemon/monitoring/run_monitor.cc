@@ -7,6 +7,7 @@
 #include "config/alert_routing.h"
 #include "core/reference_check.h"
 #include "core/time_to_target.h"
+#include "daemon/monitoring/snapshot_rows.h"
 #include "daemon/presentation/analysis_report.h"
 #include "daemon/presentation/number_format.h"
 #include "daemon/presentation/json_writer.h"
@@ -51,7 +52,7 @@ JsonDocument StatisticJson(const StatisticEstimate& e, const StatisticConfig& c,
                           const std::optional<ReferenceComparison>& reference,
                           const SourceStatistics* source, double flow_through_time,
                           double wall_time) {
-  const std::string& state = row.state;
+  const std::string_view state = ConvergenceStateName(row.state);
   const std::string& reason = row.state_reason;
   JsonWriter json;
   json.BeginObject();
@@ -372,47 +373,32 @@ SnapshotRow RunMonitor::Snapshot(Tracked& t, double wall_time, std::vector<Event
     e.state_reason = problem.empty() ? "no file of source '" + c.source + "' has been read yet"
                                      : problem;
   }
-  std::string state;
-  std::string reason;
+  SnapshotRow row = EstimateRow(e);
   if (!problem.empty()) {
-    state = "column_missing";
-    reason = problem;
+    row.state = ConvergenceState::kColumnMissing;
+    row.state_reason = problem;
   } else {
     for (const ConvergenceEvent& event : t.tracker.Update(e, wall_time)) {
-      EventRow row = MakeEvent(event.kind, event.statistic, event.message, event.simulated_time,
-                               event.wall_time);
-      row.value = e.value;
-      row.half_width = e.half_width;
-      row.confidence = e.confidence;
-      if (c.target) {
-        row.target = c.target->kind == Target::Kind::kRelative ? FormatPercent(c.target->value)
-                                                               : FormatValue(c.target->value);
-      }
-      events.push_back(std::move(row));
+      EventRow event_row = MakeEvent(event.kind, event.statistic, event.message,
+                                     event.simulated_time, event.wall_time);
+      event_row.value = e.value;
+      event_row.half_width = e.half_width;
+      event_row.confidence = e.confidence;
+      if (c.target) event_row.target = FormatTarget(c.target->kind, c.target->value);
+      events.push_back(std::move(event_row));
     }
-    state = std::string(ConvergenceStateName(t.tracker.state()));
-    reason = t.tracker.reason();
+    row.state = t.tracker.state();
+    row.state_reason = t.tracker.reason();
   }
-  SnapshotRow row;
   row.statistic = c.request.name;
-  row.state = state;
-  row.state_reason = reason;
   row.confidence = options.confidence;
-  row.target_kind = c.target ? std::string(TargetKindName(c.target->kind)) : "";
-  row.target_value = c.target ? c.target->value : kNaN;
+  if (c.target) {
+    row.target_kind = c.target->kind;
+    row.target_value = c.target->value;
+  }
   row.target_half_width = t.tracker.TargetHalfWidth(e.value);
   row.met_at_time = t.tracker.met() ? t.tracker.met_at_time() : kNaN;
   row.met_at_wall = t.tracker.met() ? t.tracker.met_at_wall() : kNaN;
-  row.value = e.value;
-  row.half_width = e.half_width;
-  row.relative_half_width = e.relative_half_width;
-  row.integrated_time = e.integrated_time;
-  row.effective_samples = e.effective_samples;
-  row.integral_time_scale = e.integral_time_scale;
-  row.averaging_time = e.averaging_time;
-  row.warmup_end_time = e.warmup_end_time;
-  row.samples_used = static_cast<std::int64_t>(e.samples_used);
-  row.last_time = e.last_time;
   row.remaining_time = !c.target        ? kNaN
                        : t.tracker.met() ? 0.0
                                          : RemainingTimeToTarget(e, row.target_half_width);
@@ -454,14 +440,9 @@ SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g,
                                       const std::vector<TargetStanding>& standings,
                                       double wall_time) const {
   const GroupStanding standing = JudgeGroup(g, standings);
-  SnapshotRow row;
-  row.statistic = g.name;
-  row.target_kind = "group";
-  row.value = row.half_width = row.relative_half_width = kNaN;
-  row.integrated_time = row.effective_samples = row.warmup_end_time = row.last_time = kNaN;
-  row.target_value = row.target_half_width = row.met_at_time = row.met_at_wall = kNaN;
+  SnapshotRow row = BlankRow(g.name, RowKind::kGroup);
   row.confidence = g.confidence;
-  row.state = standing.met ? "met" : "converging";
+  row.state = standing.met ? ConvergenceState::kMet : ConvergenceState::kConverging;
   row.state_reason = standing.reason;
   row.remaining_time = standing.remaining_time;
   const double rate = rate_.PerHour();
@@ -475,7 +456,7 @@ SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g,
   for (const std::string& m : g.members) json.String(m);
   json.EndArray();
   json.Field("members_met", standing.members_met);
-  json.Field("state", row.state);
+  json.Field("state", ConvergenceStateName(row.state));
   json.Field("state_reason", row.state_reason);
   json.Field("required", g.required);
   json.Field("bonferroni", g.bonferroni);
@@ -509,8 +490,10 @@ Status RunMonitor::Evaluate(double wall_time) {
   for (std::size_t i = 0; i < tracked_.size(); ++i) {
     Tracked& t = tracked_[i];
     const SnapshotRow& row = record.snapshots.emplace_back(Snapshot(t, wall_time, events, &estimates[i]));
-    standings.push_back({row.statistic, t.config->target.has_value(), row.state == "met", row.state,
-                         row.state_reason, row.remaining_time});
+    standings.push_back({row.statistic, t.config->target.has_value(),
+                         row.state == ConvergenceState::kMet,
+                         std::string(ConvergenceStateName(row.state)), row.state_reason,
+                         row.remaining_time});
   }
   record.remaining_time = RunRemainingTime(standings);
   const double rate = rate_.PerHour();

@@ -34,6 +34,10 @@ std::string FormatDuration(double seconds) {
   return PrintfNumber("%.1f d", seconds / 86400);
 }
 
+std::string FormatTarget(Target::Kind kind, double value) {
+  return kind == Target::Kind::kRelative ? FormatPercent(value) : FormatValue(value);
+}
+
 std::string FormatUtcTime(double wall) {
   if (std::isnan(wall)) return "-";
   const std::time_t t = static_cast<std::time_t>(wall);

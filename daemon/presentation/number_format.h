@@ -5,6 +5,8 @@
 
 #include <string>
 
+#include "core/convergence_tracker.h"
+
 namespace plateau {
 
 // `value` through a printf format with one double conversion ("%.3g").
@@ -16,6 +18,8 @@ std::string FormatHalfWidth(double value);
 std::string FormatPercent(double fraction);
 // A span of wall-clock seconds as "45 s", "3.5 min", "2.1 h" or "1.5 d"; "-" when NaN.
 std::string FormatDuration(double seconds);
+// A target half-width: "1.5 %" for a relative one, "0.002" for one in the statistic's units.
+std::string FormatTarget(Target::Kind kind, double value);
 // Wall-clock seconds since the epoch as "2026-12-02 10:15:00 UTC"; "-" when NaN.
 std::string FormatUtcTime(double wall);
 

@@ -13,15 +13,14 @@ namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
-std::string StateWords(const std::string& state) {
-  std::string words = state;
+std::string StateWords(ConvergenceState state) {
+  std::string words(ConvergenceStateName(state));
   for (char& c : words) c = c == '_' ? ' ' : c;
   return words;
 }
 
 std::string TargetCell(const SnapshotRow& s) {
-  if (s.target_kind.empty()) return "-";
-  return s.target_kind == "relative" ? FormatPercent(s.target_value) : FormatValue(s.target_value);
+  return s.target_kind ? FormatTarget(*s.target_kind, s.target_value) : "-";
 }
 
 std::string DaemonLine(const StatusContext& c, double age) {
@@ -37,8 +36,8 @@ struct Tally {
   const SnapshotRow* column_missing = nullptr;
 };
 
-bool IsGroup(const SnapshotRow& s) { return s.target_kind == "group"; }
-bool IsProfileSummary(const SnapshotRow& s) { return s.target_kind == "profile"; }
+bool IsGroup(const SnapshotRow& s) { return s.kind == RowKind::kGroup; }
+bool IsProfileSummary(const SnapshotRow& s) { return s.kind == RowKind::kProfileSummary; }
 
 // "300 time units (about 2.1 h, at 2026-12-02 10:15 UTC)", or "unknown".
 std::string Prediction(double simulated, double wall_seconds, double now) {
@@ -55,10 +54,10 @@ std::string Prediction(double simulated, double wall_seconds, double now) {
 Tally Count(const LatestView& v) {
   Tally t;
   for (const SnapshotRow& s : v.statistics) {
-    if (s.state == "column_missing" && !t.column_missing) t.column_missing = &s;
-    if (s.target_kind.empty() || IsGroup(s) || IsProfileSummary(s)) continue;
+    if (s.state == ConvergenceState::kColumnMissing && !t.column_missing) t.column_missing = &s;
+    if (!s.target_kind || IsGroup(s) || IsProfileSummary(s)) continue;
     ++t.targets;
-    if (s.state == "met") {
+    if (s.state == ConvergenceState::kMet) {
       ++t.met;
     } else if (!t.first_unmet) {
       t.first_unmet = &s;
@@ -117,7 +116,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
                   estimated ? FormatValue(s.integral_time_scale) : "-", estimated ? neff : "-",
                   FormatValue(s.warmup_end_time),
                   StateWords(s.state), FormatValue(s.met_at_time),
-                  s.state == "met" || s.target_kind.empty()
+                  s.state == ConvergenceState::kMet || !s.target_kind
                       ? "-"
                       : Prediction(s.remaining_time, s.remaining_wall, c.now),
                   s.reference_verdict.empty() ? "-"
@@ -153,8 +152,8 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
   }
   bool header = false;
   for (const SnapshotRow& s : v.statistics) {
-    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty() || s.state == "met" ||
-        s.state == "monitored" || s.state_reason.empty()) {
+    if (IsGroup(s) || IsProfileSummary(s) || !s.profile.empty() || s.state == ConvergenceState::kMet ||
+        s.state == ConvergenceState::kMonitored || s.state_reason.empty()) {
       continue;
     }
     if (!header) out += "\nnotes:\n";
@@ -252,11 +251,11 @@ std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContex
     SnapshotRow row;
     row.document = s;  // as the store keeps it, so that both views render alike
     row.statistic = TextOr(s, "name");
-    if (flag(s, "group")) row.target_kind = "group";
+    if (flag(s, "group")) row.kind = RowKind::kGroup;
     // A profile's summaries: per quantity (with "points") and its momentum balance.
-    if (s.contains("points") || s.contains("departure")) row.target_kind = "profile";
+    if (s.contains("points") || s.contains("departure")) row.kind = RowKind::kProfileSummary;
     if (s.contains("point")) row.profile = TextOr(s, "profile");
-    row.state = TextOr(s, "state");
+    row.state = ConvergenceStateFromName(TextOr(s, "state")).value_or(ConvergenceState::kNoData);
     row.state_reason = TextOr(s, "state_reason");
     row.value = NumberOr(s, "mean");
     row.half_width = NumberOr(s, "half_width");
@@ -273,7 +272,8 @@ std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContex
     row.remaining_wall = NumberOr(member(s, "time_to_target"), "wall_seconds");
     row.reference_verdict = TextOr(member(s, "reference"), "verdict");
     if (member(s, "target").is_object()) {
-      row.target_kind = TextOr(s["target"], "kind");
+      row.target_kind = TextOr(s["target"], "kind") == "relative" ? Target::Kind::kRelative
+                                                                  : Target::Kind::kAbsolute;
       row.target_value = NumberOr(s["target"], "value");
     }
     row.target_half_width = NumberOr(s, "target_half_width");
@@ -301,11 +301,13 @@ CheckAnswer Check(const LatestView& v, const StatusContext& c, const std::string
   if (!stat.empty()) {
     for (const SnapshotRow& s : v.statistics) {
       if (s.statistic != stat) continue;
-      if (s.state == "column_missing" || s.target_kind.empty()) {
-        return {2, "cannot tell: " + stat + " " +
-                       (s.target_kind.empty() ? "has no target" : s.state_reason) + when};
+      // Groups and profile summaries are judged by their state; a statistic needs a target.
+      const bool no_target = s.kind == RowKind::kStatistic && !s.target_kind;
+      if (s.state == ConvergenceState::kColumnMissing || no_target) {
+        return {2, "cannot tell: " + stat + " " + (no_target ? "has no target" : s.state_reason) +
+                       when};
       }
-      if (s.state == "met") {
+      if (s.state == ConvergenceState::kMet) {
         return {0, "stop: " + stat + " met its target at time " + FormatValue(s.met_at_time) + when};
       }
       return {1, "continue: " + stat + " is " + StateWords(s.state) + ": " + s.state_reason + when};

@@ -145,7 +145,7 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   const auto per_statistic = [&](const std::string& name, const std::string& help, auto field) {
     Family family(out, name, "gauge", help);
     for (const SnapshotRow& s : cycle.snapshots) {
-      if (s.target_kind == "group" || s.target_kind == "profile") continue;
+      if (s.kind != RowKind::kStatistic) continue;
       family.Sample(run + ",statistic=\"" + Label(s.statistic) + "\"", field(s));
     }
   };
@@ -168,7 +168,7 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   per_statistic("plateau_statistic_effective_samples", "Effective sample size.",
                 [](const SnapshotRow& s) { return s.effective_samples; });
   per_statistic("plateau_statistic_met", "1 when the statistic meets its target, else 0.",
-                [](const SnapshotRow& s) { return s.state == "met" ? 1.0 : 0.0; });
+                [](const SnapshotRow& s) { return s.state == ConvergenceState::kMet ? 1.0 : 0.0; });
   Family samples(out, "plateau_source_samples_total", "counter",
                  "Samples admitted from the source's files.");
   Family bad(out, "plateau_source_bad_lines_total", "counter",
@@ -188,8 +188,8 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   }
   Family groups(out, "plateau_group_met", "gauge", "1 when every member of the group is met, else 0.");
   for (const SnapshotRow& s : cycle.snapshots) {
-    if (s.target_kind == "group") {
-      groups.Sample(run + ",group=\"" + Label(s.statistic) + "\"", s.state == "met" ? 1.0 : 0.0);
+    if (s.kind == RowKind::kGroup) {
+      groups.Sample(run + ",group=\"" + Label(s.statistic) + "\"", s.state == ConvergenceState::kMet ? 1.0 : 0.0);
     }
   }
   Family left(out, "plateau_run_remaining_simulated_time", "gauge",

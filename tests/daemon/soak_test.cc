@@ -172,7 +172,7 @@ TEST_F(Soak, FlatMemoryNoDescriptorLeakEverySampleOnceNoEventTwice) {
   const auto latest = Latest();
   ASSERT_TRUE(latest);
   for (const SnapshotRow& s : latest->statistics) {
-    if (s.profile.empty() && s.target_kind != "group") {
+    if (s.profile.empty() && s.kind != RowKind::kGroup) {
       EXPECT_EQ(s.document.value("samples_total", std::int64_t{-1}),
                 static_cast<std::int64_t>(expected))
           << s.statistic;

@@ -33,11 +33,11 @@ class RunStoreTest : public ::testing::Test {
     r.fingerprint = "fp";
     SnapshotRow s;
     s.statistic = "tau";
-    s.state = "converging";
+    s.state = ConvergenceState::kConverging;
     s.state_reason = "half-width 2 %";
     s.value = 0.28;
     s.half_width = std::nan("");
-    s.target_kind = "relative";
+    s.target_kind = Target::Kind::kRelative;
     s.target_value = 0.01;
     s.document = {{"name", "tau"}, {"cycle", n}};
     r.snapshots = {s};
