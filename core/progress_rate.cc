@@ -5,6 +5,10 @@
 
 namespace plateau {
 
+double WallSecondsAt(double simulated, double per_hour) {
+  return per_hour > 0.0 ? simulated / per_hour * 3600.0 : std::numeric_limits<double>::quiet_NaN();
+}
+
 void ProgressRate::Add(double wall_seconds, double simulated_time) {
   if (std::isnan(wall_seconds) || std::isnan(simulated_time)) return;
   if (!points_.empty() && wall_seconds <= points_.back().first) return;

@@ -10,6 +10,10 @@
 
 namespace plateau {
 
+// Wall-clock seconds that `simulated` time takes at `per_hour` simulated time per hour; NaN when
+// the rate is unknown or not positive.
+double WallSecondsAt(double simulated, double per_hour);
+
 class ProgressRate {
  public:
   static constexpr std::size_t kWindow = 30;  // evaluations

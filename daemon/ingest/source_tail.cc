@@ -204,6 +204,15 @@ double SourceTail::last_sample_time() const {
 
 void SourceTail::ShiftWallClock(double seconds) { last_sample_wall_time_ += seconds; }
 
+std::uint64_t SourceTail::admitted_samples() const {
+  std::uint64_t samples = 0;
+  if (!source_) return samples;
+  for (const Statistic& statistic : source_->statistics()) {
+    samples = std::max<std::uint64_t>(samples, statistic.history().sample_count());
+  }
+  return samples;
+}
+
 std::uint64_t SourceTail::bad_lines() const {
   std::uint64_t total = 0;
   for (const TrackedFile& f : files_) total += f.parser.bad_lines();

@@ -40,6 +40,9 @@ class SourceTail {
   const SourceConfig& config() const { return config_; }
   // nullptr until a file of the source has shown its columns.
   const SourceStatistics* statistics() const { return source_ ? &*source_ : nullptr; }
+  // Rows admitted so far (after the restart-overlap gate): every statistic of the source sees
+  // each, and its count is checkpointed.
+  std::uint64_t admitted_samples() const;
   // Why a requested statistic has no estimate (an unknown column); empty when it has one.
   std::string ProblemOf(const std::string& statistic_name) const;
   const Statistic* Find(const std::string& statistic_name) const;

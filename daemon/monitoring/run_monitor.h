@@ -14,14 +14,13 @@
 #include <vector>
 
 #include "config/run_config.h"
-#include "core/convergence_tracker.h"
 #include "core/input_health.h"
 #include "core/progress_rate.h"
-#include "core/reference_check.h"
 #include "core/run_verdict.h"
 #include "core/status.h"
+#include "daemon/ingest/source_tails.h"
 #include "daemon/monitoring/profile_summaries.h"
-#include "daemon/ingest/source_tail.h"
+#include "daemon/monitoring/tracked_statistic.h"
 #include "store/run_store.h"
 
 namespace plateau {
@@ -35,7 +34,7 @@ class RunMonitor {
   // otherwise (a new store, or a changed config) every file is read from its start.
   void Restore();
   // Reads what the probe files gained. Returns true when more bytes are waiting.
-  bool Poll(double wall_time);
+  bool Poll(double wall_time) { return tails_.Poll(wall_time); }
   // Evaluates every statistic and writes one cycle to the store.
   Status Evaluate(double wall_time);
   // The loop is reading a backlog: what follows says nothing about the solver's speed or its
@@ -51,13 +50,7 @@ class RunMonitor {
   // The last cycle written (its snapshots and run fields; no checkpoint); cycle 0 before any.
   const CycleRecord& last_cycle() const { return last_cycle_; }
 
-  struct SourceCounters {
-    std::string source;
-    std::uint64_t samples = 0;  // admitted (after the restart-overlap gate)
-    std::uint64_t bad_lines = 0;
-    double last_sample_wall = 0.0;  // NaN before the first
-  };
-  std::vector<SourceCounters> Counters() const;
+  std::vector<SourceCounters> Counters() const { return tails_.Counters(); }
 
   // Applies a reloaded config: targets, stop-rule settings, alerts and intervals take effect now,
   // keeping every estimate and the confirmations counted so far for unchanged targets. Sources
@@ -67,27 +60,15 @@ class RunMonitor {
   double progress_rate() const { return rate_.PerHour(); }
   std::int64_t cycle() const { return cycle_; }
   const RunConfig& config() const { return config_; }
-  std::vector<std::string> Folders() const;
-
-  // What identifies the meaning of the checkpointed estimator state: sources and statistics, not
-  // targets (those may change between restarts without re-reading anything).
-  static std::string Fingerprint(const RunConfig& config);
+  std::vector<std::string> Folders() const { return tails_.Folders(); }
 
  private:
-  struct Tracked {
-    StatisticConfig* config;  // into config_.statistics, which never changes size
-    SourceTail* tail;
-    ConvergenceTracker tracker;
-    double confidence = 0.95;  // the target's, or stricter inside a Bonferroni group
-  };
-  SourceTail* TailOf(const std::string& source);
-  // The row of one statistic; its estimate goes to *estimate (profiles and wall units use it).
-  // The reference verdict of a statistic: against a value, or against another statistic's series
-  // (jointly where the config formed their difference); nullopt without a reference or while the
-  // reference statistic has no data.
-  std::optional<ReferenceComparison> Reference(const StatisticConfig& c, const StatisticEstimate& e,
-                                               const EvaluationOptions& options);
-  SnapshotRow Snapshot(Tracked& t, double wall_time, std::vector<EventRow>& events,
+  // A statistic's estimate at `options`, for the statistics judged against it.
+  std::optional<StatisticEstimate> EstimateOf(const std::string& name,
+                                              const EvaluationOptions& options) const;
+  // The row of one statistic; its estimate goes to *estimate (profiles and wall units use it),
+  // its stop rule's events to `events`.
+  SnapshotRow Snapshot(TrackedStatistic& t, double wall_time, std::vector<EventRow>& events,
                        StatisticEstimate* estimate);
   SnapshotRow GroupSnapshot(const StatisticGroup& group, const std::vector<TargetStanding>& standings,
                             double wall_time) const;
@@ -101,9 +82,9 @@ class RunMonitor {
   RunConfig config_;
   std::unique_ptr<RunStore> store_;
   std::shared_ptr<spdlog::logger> log_;
-  std::vector<std::unique_ptr<SourceTail>> tails_;
+  SourceTails tails_;
   std::unique_ptr<ProfileSummaries> summaries_;
-  std::vector<Tracked> tracked_;
+  std::vector<TrackedStatistic> tracked_;
   std::vector<EventRow> pending_events_;
   std::int64_t cycle_ = 0;
   bool run_met_ = false;

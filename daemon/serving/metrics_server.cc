@@ -175,15 +175,15 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
              "Lines of the source's files that were skipped as bad.");
   Family since(out, "plateau_source_seconds_since_last_sample", "gauge",
                "Seconds since the source's newest sample was read.");
-  const std::vector<RunMonitor::SourceCounters> counters = monitor.Counters();
-  for (const RunMonitor::SourceCounters& c : counters) {
+  const std::vector<SourceCounters> counters = monitor.Counters();
+  for (const SourceCounters& c : counters) {
     const std::string labels = run + ",source=\"" + Label(c.source) + "\"";
     samples.Sample(labels, static_cast<double>(c.samples));
   }
-  for (const RunMonitor::SourceCounters& c : counters) {
+  for (const SourceCounters& c : counters) {
     bad.Sample(run + ",source=\"" + Label(c.source) + "\"", static_cast<double>(c.bad_lines));
   }
-  for (const RunMonitor::SourceCounters& c : counters) {
+  for (const SourceCounters& c : counters) {
     since.Sample(run + ",source=\"" + Label(c.source) + "\"", now - c.last_sample_wall);
   }
   Family groups(out, "plateau_group_met", "gauge", "1 when every member of the group is met, else 0.");
