@@ -22,6 +22,7 @@
 #include "config/config_loader.h"
 #include "daemon/commands/analyze_command.h"
 #include "daemon/monitoring/run_monitor.h"
+#include "daemon/presentation/json_document.h"
 #include "daemon/presentation/status_report.h"
 #include "daemon/runtime/run_logger.h"
 #include "tests/daemon/run_folder.h"
@@ -187,6 +188,14 @@ TEST_F(CycleDocuments, AnalyzeAndStatusOfTheDemoRunAreAsBefore) {
   context.now = wall + 1.0;
   std::string status_json = StatusJson(*view, context);
   std::string status_table = StatusTable(*view, context);
+  // The daemon's path: status reads its JSON answer back into a view and shows the same table.
+  std::string ignored;
+  StatusContext read_back;
+  read_back.now = context.now;  // the reader's own clock, as plateau status sets it
+  const std::optional<LatestView> from_json =
+      LatestViewFromJson(*ParseJsonDocument(status_json, &ignored), &read_back);
+  ASSERT_TRUE(from_json);
+  EXPECT_EQ(StatusTable(*from_json, read_back), status_table);
 
   std::vector<std::string> args = {"--json"};
   for (const auto& [path, text] : files) args.push_back((run / fs::relative(path, generated)).string());
