@@ -7,110 +7,11 @@
 #include <cstdlib>
 #include <cstring>
 
+#include "store/snapshot_columns.h"
+#include "store/store_schema.h"
+
 namespace plateau {
 namespace {
-
-// The target_kind column holds the target's kind for a statistic ("relative", "absolute", or ""
-// without one) and the row's kind for the others ("group", "profile"), as since schema 1.
-std::string TargetKindColumn(const SnapshotRow& row) {
-  if (row.kind == RowKind::kGroup) return "group";
-  if (row.kind == RowKind::kProfileSummary) return "profile";
-  if (!row.target_kind) return "";
-  return *row.target_kind == Target::Kind::kRelative ? "relative" : "absolute";
-}
-
-void ReadTargetKindColumn(const std::string& text, SnapshotRow& row) {
-  row.kind = text == "group"     ? RowKind::kGroup
-             : text == "profile" ? RowKind::kProfileSummary
-                                 : RowKind::kStatistic;
-  row.target_kind = text == "relative"   ? std::optional(Target::Kind::kRelative)
-                    : text == "absolute" ? std::optional(Target::Kind::kAbsolute)
-                                         : std::nullopt;
-}
-
-// The states a store holds are those this build writes (the schema version guards the rest).
-ConvergenceState StateColumn(const std::string& text) {
-  return ConvergenceStateFromName(text).value_or(ConvergenceState::kNoData);
-}
-
-// Schema scripts by version: kMigrations[v - 1] takes a store from version v - 1 to v. A new
-// version appends a script (ALTER TABLE, new tables) and raises kSchemaVersion; old stores are
-// brought forward on open, in order, each step in its own transaction.
-constexpr std::array<const char*, RunStore::kSchemaVersion> kMigrations = {R"sql(
-CREATE TABLE meta(key TEXT PRIMARY KEY, value TEXT NOT NULL);
-CREATE TABLE cycles(
-  cycle INTEGER PRIMARY KEY,
-  wall_time REAL NOT NULL,
-  last_sample_time REAL,
-  last_sample_wall_time REAL,
-  run_met INTEGER NOT NULL);
-CREATE TABLE snapshots(
-  cycle INTEGER NOT NULL,
-  position INTEGER NOT NULL,
-  statistic TEXT NOT NULL,
-  state TEXT NOT NULL,
-  state_reason TEXT NOT NULL,
-  value REAL, half_width REAL, relative_half_width REAL, integrated_time REAL,
-  effective_samples REAL, warmup_end_time REAL, samples_used INTEGER, last_time REAL,
-  confidence REAL, target_kind TEXT NOT NULL, target_value REAL, target_half_width REAL,
-  met_at_time REAL, met_at_wall REAL,
-  PRIMARY KEY(cycle, position));
-CREATE TABLE latest(position INTEGER PRIMARY KEY, json TEXT NOT NULL);
-CREATE TABLE events(
-  id INTEGER PRIMARY KEY AUTOINCREMENT,
-  cycle INTEGER NOT NULL,
-  wall_time REAL NOT NULL,
-  simulated_time REAL,
-  statistic TEXT NOT NULL,
-  kind TEXT NOT NULL,
-  message TEXT NOT NULL);
-CREATE TABLE files(
-  path TEXT PRIMARY KEY,
-  source TEXT NOT NULL,
-  inode INTEGER NOT NULL,
-  offset INTEGER NOT NULL,
-  lines INTEGER NOT NULL,
-  rows INTEGER NOT NULL,
-  bad_lines INTEGER NOT NULL,
-  first_time REAL,
-  last_time REAL,
-  columns TEXT NOT NULL,
-  vanished INTEGER NOT NULL,
-  signature TEXT NOT NULL);
-CREATE TABLE checkpoint(item TEXT PRIMARY KEY, state BLOB NOT NULL);
-INSERT INTO meta(key, value) VALUES ('application', 'plateau');
-)sql",
-                                                                           R"sql(
-ALTER TABLE events ADD COLUMN value REAL;
-ALTER TABLE events ADD COLUMN half_width REAL;
-ALTER TABLE events ADD COLUMN confidence REAL;
-ALTER TABLE events ADD COLUMN target TEXT NOT NULL DEFAULT '';
-ALTER TABLE events ADD COLUMN progress_rate REAL;
-ALTER TABLE events ADD COLUMN elapsed_wall REAL;
-ALTER TABLE events ADD COLUMN remaining_time REAL;
-ALTER TABLE snapshots ADD COLUMN remaining_time REAL;
-ALTER TABLE snapshots ADD COLUMN remaining_wall REAL;
-ALTER TABLE snapshots ADD COLUMN reference_verdict TEXT NOT NULL DEFAULT '';
-ALTER TABLE snapshots ADD COLUMN profile TEXT NOT NULL DEFAULT '';
-ALTER TABLE cycles ADD COLUMN remaining_time REAL;
-ALTER TABLE cycles ADD COLUMN remaining_wall REAL;
-CREATE TABLE deliveries(
-  event_id INTEGER NOT NULL REFERENCES events(id),
-  channel TEXT NOT NULL,
-  state TEXT NOT NULL,
-  attempts INTEGER NOT NULL,
-  next_attempt_at REAL,
-  last_attempt_at REAL,
-  last_error TEXT NOT NULL,
-  PRIMARY KEY(event_id, channel));
-)sql",
-                                                                           R"sql(
-UPDATE checkpoint SET item = item || '#0' WHERE item LIKE 'state:%';
-)sql",
-                                                                           R"sql(
-ALTER TABLE snapshots ADD COLUMN integral_time_scale REAL;
-ALTER TABLE snapshots ADD COLUMN averaging_time REAL;
-)sql"};
 
 std::string JoinColumns(const std::vector<std::string>& columns) {
   std::string joined;
@@ -155,17 +56,6 @@ std::string PageKey(const std::string& item, std::size_t page) {
   return "state:" + item + "#" + std::to_string(page);
 }
 
-// Runs `body` inside BEGIN IMMEDIATE .. COMMIT, rolling back on any failure.
-template <typename Body>
-Status InTransaction(SqliteConnection& db, Body body) {
-  Status status = db.Execute("BEGIN IMMEDIATE");
-  if (!status.ok()) return status;
-  status = body();
-  if (status.ok()) status = db.Execute("COMMIT");
-  if (!status.ok()) db.Execute("ROLLBACK");
-  return status;
-}
-
 }  // namespace
 
 std::unique_ptr<RunStore> RunStore::OpenForWriting(const std::string& path,
@@ -190,7 +80,7 @@ std::unique_ptr<RunStore> RunStore::OpenForReading(const std::string& path, Stat
   if (!connection) return nullptr;
   std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
   int version = 0;
-  *status = store->SchemaVersion(&version);
+  *status = ReadSchemaVersion(*store->connection_, &version);
   if (!status->ok()) return nullptr;
   if (version == 0) {
     *status = Status::Error("store " + path + " is empty: the daemon has not written to it yet");
@@ -204,56 +94,8 @@ std::unique_ptr<RunStore> RunStore::OpenForReading(const std::string& path, Stat
   return store;
 }
 
-Status RunStore::SchemaVersion(int* version) {
-  Status status;
-  auto tables = connection_->Prepare(
-      "SELECT count(*), sum(name = 'meta') FROM sqlite_master WHERE type = 'table'", &status);
-  if (!tables) return status;
-  if (!tables->Step()) {
-    return tables->status().ok() ? Status::Error(connection_->LastError())
-                                 : Status::Error("store " + path() + ": " +
-                                                 tables->status().message());
-  }
-  const std::int64_t count = tables->ColumnInt(0);
-  const std::int64_t has_meta = tables->ColumnInt(1);
-  if (count == 0) {
-    *version = 0;
-    return Status::Ok();
-  }
-  if (has_meta == 0) return Status::Error("store " + path() + " is not a plateau store");
-  auto query = connection_->Prepare(
-      "SELECT value FROM meta WHERE key = 'schema_version'", &status);
-  if (!query) return status;
-  *version = query->Step() ? std::stoi(query->ColumnText(0)) : 0;
-  return query->status();
-}
-
 Status RunStore::Migrate(const std::string& run_name) {
-  int version = 0;
-  Status status = SchemaVersion(&version);
-  if (!status.ok()) return status;
-  if (version > kSchemaVersion) {
-    return Status::Error("store " + path() + " has schema version " + std::to_string(version) +
-                         "; this plateau writes version " + std::to_string(kSchemaVersion) +
-                         ": use the newer plateau");
-  }
-  for (int next = version + 1; next <= kSchemaVersion; ++next) {
-    status = InTransaction(*connection_, [&] {
-      Status step = connection_->Execute(kMigrations[next - 1]);
-      if (!step.ok()) return step;
-      Status prepared;
-      auto set = connection_->Prepare(
-          "INSERT OR REPLACE INTO meta(key, value) VALUES ('schema_version', ?1), "
-          "('run_name', ?2)",
-          &prepared);
-      if (!set) return prepared;
-      set->Bind(1, std::to_string(next));
-      set->Bind(2, run_name);
-      return set->Run();
-    });
-    if (!status.ok()) return status;
-  }
-  return Status::Ok();
+  return MigrateSchema(*connection_, run_name);
 }
 
 Status RunStore::WriteCheckpointPages(const CycleRecord& r, PageHashes& pages,
@@ -327,41 +169,13 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
     if (!(s = cycle->Run()).ok()) return s;
 
     if (!(s = db.Execute("DELETE FROM latest")).ok()) return s;
-    auto snapshot = db.Prepare(
-        "INSERT OR REPLACE INTO snapshots VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
-        "?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22, ?23, ?24, ?25)",
-        &s);
+    auto snapshot = db.Prepare(kInsertSnapshot, &s);
     auto latest = db.Prepare("INSERT INTO latest VALUES (?1, ?2)", &s);
     if (!snapshot || !latest) return s;
     for (std::size_t i = 0; i < r.snapshots.size(); ++i) {
       const SnapshotRow& row = r.snapshots[i];
       const auto position = static_cast<std::int64_t>(i);
-      snapshot->Reset();
-      snapshot->Bind(1, r.cycle);
-      snapshot->Bind(2, position);
-      snapshot->Bind(3, row.statistic);
-      snapshot->Bind(4, std::string(ConvergenceStateName(row.state)));
-      snapshot->Bind(5, row.state_reason);
-      snapshot->Bind(6, row.value);
-      snapshot->Bind(7, row.half_width);
-      snapshot->Bind(8, row.relative_half_width);
-      snapshot->Bind(9, row.integrated_time);
-      snapshot->Bind(10, row.effective_samples);
-      snapshot->Bind(11, row.warmup_end_time);
-      snapshot->Bind(12, row.samples_used);
-      snapshot->Bind(13, row.last_time);
-      snapshot->Bind(14, row.confidence);
-      snapshot->Bind(15, TargetKindColumn(row));
-      snapshot->Bind(16, row.target_value);
-      snapshot->Bind(17, row.target_half_width);
-      snapshot->Bind(18, row.met_at_time);
-      snapshot->Bind(19, row.met_at_wall);
-      snapshot->Bind(20, row.remaining_time);
-      snapshot->Bind(21, row.remaining_wall);
-      snapshot->Bind(22, row.reference_verdict);
-      snapshot->Bind(23, row.profile);
-      snapshot->Bind(24, row.integral_time_scale);
-      snapshot->Bind(25, row.averaging_time);
+      BindSnapshot(*snapshot, r.cycle, position, row);
       if (!(s = snapshot->Run()).ok()) return s;
       latest->Reset();
       latest->Bind(1, position);
@@ -534,45 +348,19 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
     v.run_name = cycle->ColumnText(5);
     v.remaining_time = cycle->ColumnDouble(6);
     v.remaining_wall = cycle->ColumnDouble(7);
-    auto rows = connection_->Prepare(
-        "SELECT s.statistic, s.state, s.state_reason, s.value, s.half_width, "
-        "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
-        "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
-        "s.target_half_width, s.met_at_time, s.met_at_wall, s.remaining_time, s.remaining_wall, "
-        "s.reference_verdict, s.profile, l.json, s.integral_time_scale, s.averaging_time "
-        "FROM snapshots s "
-        "JOIN latest l ON l.position = s.position WHERE s.cycle = ?1 ORDER BY s.position",
-        status);
+    auto rows = connection_->Prepare(std::string("SELECT ") + kSnapshotColumns +
+                                         ", l.json FROM snapshots s JOIN latest l ON "
+                                         "l.position = s.position WHERE s.cycle = ?1 "
+                                         "ORDER BY s.position",
+                                     status);
     if (!rows) return;
     rows->Bind(1, v.cycle);
     while (rows->Step()) {
-      SnapshotRow row;
-      row.statistic = rows->ColumnText(0);
-      row.state = StateColumn(rows->ColumnText(1));
-      row.state_reason = rows->ColumnText(2);
-      row.value = rows->ColumnDouble(3);
-      row.half_width = rows->ColumnDouble(4);
-      row.relative_half_width = rows->ColumnDouble(5);
-      row.integrated_time = rows->ColumnDouble(6);
-      row.effective_samples = rows->ColumnDouble(7);
-      row.warmup_end_time = rows->ColumnDouble(8);
-      row.samples_used = rows->ColumnInt(9);
-      row.last_time = rows->ColumnDouble(10);
-      row.confidence = rows->ColumnDouble(11);
-      ReadTargetKindColumn(rows->ColumnText(12), row);
-      row.target_value = rows->ColumnDouble(13);
-      row.target_half_width = rows->ColumnDouble(14);
-      row.met_at_time = rows->ColumnDouble(15);
-      row.met_at_wall = rows->ColumnDouble(16);
-      row.remaining_time = rows->ColumnDouble(17);
-      row.remaining_wall = rows->ColumnDouble(18);
-      row.reference_verdict = rows->ColumnText(19);
-      row.profile = rows->ColumnText(20);
+      SnapshotRow row = SnapshotAt(*rows, 0);
       // Written by WriteCycle; a text that does not parse (a damaged file) reads as null.
-      row.document = nlohmann::ordered_json::parse(rows->ColumnText(21), nullptr, false);
+      row.document =
+          nlohmann::ordered_json::parse(rows->ColumnText(kSnapshotColumnCount), nullptr, false);
       if (row.document.is_discarded()) row.document = nullptr;
-      row.integral_time_scale = rows->ColumnDouble(22);
-      row.averaging_time = rows->ColumnDouble(23);
       v.statistics.push_back(std::move(row));
     }
     if (!(*status = rows->status()).ok()) return;
@@ -627,40 +415,14 @@ std::vector<EventRow> RunStore::ReadEvents(std::int64_t after_id, int limit, Sta
 
 std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
   std::vector<HistoryRow> history;
-  auto query = connection_->Prepare(
-      "SELECT s.cycle, c.wall_time, s.statistic, s.state, s.state_reason, s.value, s.half_width, "
-      "s.relative_half_width, s.integrated_time, s.effective_samples, s.warmup_end_time, "
-      "s.samples_used, s.last_time, s.confidence, s.target_kind, s.target_value, "
-      "s.target_half_width, s.remaining_time, s.profile, s.integral_time_scale, "
-      "s.averaging_time FROM snapshots s "
-      "JOIN cycles c ON c.cycle = s.cycle ORDER BY s.cycle, s.position",
-      status);
+  auto query = connection_->Prepare(std::string("SELECT s.cycle, c.wall_time, ") +
+                                        kSnapshotColumns +
+                                        " FROM snapshots s JOIN cycles c ON c.cycle = s.cycle "
+                                        "ORDER BY s.cycle, s.position",
+                                    status);
   if (!query) return history;
   while (query->Step()) {
-    HistoryRow h;
-    h.cycle = query->ColumnInt(0);
-    h.wall_time = query->ColumnDouble(1);
-    SnapshotRow& s = h.snapshot;
-    s.statistic = query->ColumnText(2);
-    s.state = StateColumn(query->ColumnText(3));
-    s.state_reason = query->ColumnText(4);
-    s.value = query->ColumnDouble(5);
-    s.half_width = query->ColumnDouble(6);
-    s.relative_half_width = query->ColumnDouble(7);
-    s.integrated_time = query->ColumnDouble(8);
-    s.effective_samples = query->ColumnDouble(9);
-    s.warmup_end_time = query->ColumnDouble(10);
-    s.samples_used = query->ColumnInt(11);
-    s.last_time = query->ColumnDouble(12);
-    s.confidence = query->ColumnDouble(13);
-    ReadTargetKindColumn(query->ColumnText(14), s);
-    s.target_value = query->ColumnDouble(15);
-    s.target_half_width = query->ColumnDouble(16);
-    s.remaining_time = query->ColumnDouble(17);
-    s.profile = query->ColumnText(18);
-    s.integral_time_scale = query->ColumnDouble(19);
-    s.averaging_time = query->ColumnDouble(20);
-    history.push_back(std::move(h));
+    history.push_back({query->ColumnInt(0), query->ColumnDouble(1), SnapshotAt(*query, 2)});
   }
   *status = query->status();
   return history;

@@ -19,6 +19,7 @@
 #include "core/event_kind.h"
 #include "core/status.h"
 #include "store/sqlite_connection.h"
+#include "store/store_schema.h"
 
 namespace plateau {
 
@@ -150,7 +151,7 @@ struct StoredCheckpoint {
 
 class RunStore {
  public:
-  static constexpr int kSchemaVersion = 4;
+  static constexpr int kSchemaVersion = kStoreSchemaVersion;
   // Checkpoint items are stored in pages of this many doubles (3840 bytes: a row fits one 4 KiB
   // database page). A cycle rewrites only the pages that changed.
   static constexpr std::size_t kCheckpointPageDoubles = 480;
@@ -195,7 +196,6 @@ class RunStore {
   explicit RunStore(std::unique_ptr<SqliteConnection> connection)
       : connection_(std::move(connection)) {}
   Status Migrate(const std::string& run_name);
-  Status SchemaVersion(int* version);
   std::vector<FileProgress> ReadFiles(Status* status);
   using PageHashes = std::unordered_map<std::string, std::uint64_t>;
   // Inside WriteCycle's transaction: the checkpoint's changed pages (*written of them); `pages`

@@ -77,6 +77,17 @@ class SqliteConnection {
   std::string path_;
 };
 
+// Runs `body` inside BEGIN IMMEDIATE .. COMMIT, rolling back on any failure.
+template <typename Body>
+Status InTransaction(SqliteConnection& db, Body body) {
+  Status status = db.Execute("BEGIN IMMEDIATE");
+  if (!status.ok()) return status;
+  status = body();
+  if (status.ok()) status = db.Execute("COMMIT");
+  if (!status.ok()) db.Execute("ROLLBACK");
+  return status;
+}
+
 }  // namespace plateau
 
 #endif  // PLATEAU_STORE_SQLITE_CONNECTION_H_
