@@ -1,13 +1,13 @@
 #include "config/alert_routing.h"
 
 #include <algorithm>
-#include <array>
-#include <utility>
+
+#include "core/name_table.h"
 
 namespace plateau {
 namespace {
 
-constexpr std::array<std::pair<AlertChannelKind, std::string_view>, 4> kNames{{
+constexpr NameTable<AlertChannelKind, 4> kNames{{
     {AlertChannelKind::kEmail, "email"},
     {AlertChannelKind::kCommand, "command"},
     {AlertChannelKind::kStopFile, "stop_file"},
@@ -17,17 +17,11 @@ constexpr std::array<std::pair<AlertChannelKind, std::string_view>, 4> kNames{{
 }  // namespace
 
 std::string_view AlertChannelKindName(AlertChannelKind channel) {
-  for (const auto& [c, name] : kNames) {
-    if (c == channel) return name;
-  }
-  return "unknown";
+  return NameIn(kNames, channel);
 }
 
 std::optional<AlertChannelKind> AlertChannelKindFromName(std::string_view name) {
-  for (const auto& [c, n] : kNames) {
-    if (n == name) return c;
-  }
-  return std::nullopt;
+  return ValueIn(kNames, name);
 }
 
 std::vector<AlertChannelKind> RecordedChannelsFor(EventKind kind, const AlertsConfig& alerts) {

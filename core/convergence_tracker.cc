@@ -7,6 +7,7 @@
 #include <utility>
 
 #include "core/message_number.h"
+#include "core/name_table.h"
 
 namespace plateau {
 namespace {
@@ -15,7 +16,7 @@ constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 std::string Percent(double fraction) { return MessageNumber(100.0 * fraction) + " %"; }
 
-constexpr std::array<std::pair<ConvergenceState, std::string_view>, 8> kStateNames{{
+constexpr NameTable<ConvergenceState, 8> kStateNames{{
     {ConvergenceState::kNoData, "no_data"},
     {ConvergenceState::kNotEnoughData, "not_enough_data"},
     {ConvergenceState::kWarmingUp, "warming_up"},
@@ -29,17 +30,11 @@ constexpr std::array<std::pair<ConvergenceState, std::string_view>, 8> kStateNam
 }  // namespace
 
 std::string_view ConvergenceStateName(ConvergenceState state) {
-  for (const auto& [s, name] : kStateNames) {
-    if (s == state) return name;
-  }
-  return "unknown";
+  return NameIn(kStateNames, state);
 }
 
 std::optional<ConvergenceState> ConvergenceStateFromName(std::string_view name) {
-  for (const auto& [s, n] : kStateNames) {
-    if (n == name) return s;
-  }
-  return std::nullopt;
+  return ValueIn(kStateNames, name);
 }
 
 ConvergenceTracker::ConvergenceTracker(std::string statistic, std::optional<Target> target,

@@ -1,12 +1,11 @@
 #include "core/event_kind.h"
 
-#include <array>
-#include <utility>
+#include "core/name_table.h"
 
 namespace plateau {
 namespace {
 
-constexpr std::array<std::pair<EventKind, std::string_view>, 8> kNames{{
+constexpr NameTable<EventKind, 8> kNames{{
     {EventKind::kMet, "met"},
     {EventKind::kLost, "lost"},
     {EventKind::kRunMet, "run_met"},
@@ -19,19 +18,9 @@ constexpr std::array<std::pair<EventKind, std::string_view>, 8> kNames{{
 
 }  // namespace
 
-std::string_view EventKindName(EventKind kind) {
-  for (const auto& [k, name] : kNames) {
-    if (k == kind) return name;
-  }
-  return "unknown";
-}
+std::string_view EventKindName(EventKind kind) { return NameIn(kNames, kind); }
 
-std::optional<EventKind> EventKindFromName(std::string_view name) {
-  for (const auto& [k, n] : kNames) {
-    if (n == name) return k;
-  }
-  return std::nullopt;
-}
+std::optional<EventKind> EventKindFromName(std::string_view name) { return ValueIn(kNames, name); }
 
 const std::vector<EventKind>& AllEventKinds() {
   static const std::vector<EventKind> kinds = [] {

@@ -94,41 +94,35 @@ std::string ComponentSuffix(std::size_t n, std::size_t k) {
   return "." + std::to_string(k);
 }
 
-// Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
-// by spaces); `tokens` expands groups.
-struct HeaderTokens {
-  std::vector<std::string> tokens;
-  std::vector<std::string> fields;
+// One field of a line: a plain token, or the members of a `( … )` group. Parentheses attached to
+// a name are part of it: `areaAverage(wallShearStress)` is one plain token (the surface average of
+// a vector), not a name followed by a group.
+struct LineField {
+  std::vector<std::string_view> members;
+  bool group = false;
 };
 
-HeaderTokens TokenizeHeader(std::string_view line) {
-  HeaderTokens h;
-  std::string group;
+// The one scanner of the `( … )` syntax, for header and data lines alike.
+std::vector<LineField> SplitFields(std::string_view line) {
+  std::vector<LineField> fields;
   bool in_group = false;
   std::size_t i = 0;
   while (i < line.size()) {
     const char c = line[i];
     if (c == '(') {
       in_group = true;
-      group.clear();
+      fields.push_back({{}, true});
       ++i;
       continue;
     }
-    if (c == ')') {
-      if (in_group) h.fields.push_back(group);
-      in_group = false;
-      ++i;
-      continue;
-    }
-    if (IsSeparator(c)) {
+    if (c == ')' || IsSeparator(c)) {
+      if (c == ')') in_group = false;
       ++i;
       continue;
     }
     std::size_t j = i;
     while (j < line.size()) {
       if (line[j] == '(' && j > i) {
-        // Parentheses attached to a name are part of it: `areaAverage(wallShearStress)` is one
-        // field, the surface average of a vector, not a name followed by a group.
         const std::size_t close = MatchingParenthesis(line, j);
         if (close == std::string_view::npos) break;
         j = close + 1;
@@ -138,14 +132,33 @@ HeaderTokens TokenizeHeader(std::string_view line) {
         ++j;
       }
     }
-    std::string token(line.substr(i, j - i));
-    h.tokens.push_back(token);
     if (in_group) {
-      group += group.empty() ? token : " " + token;
+      fields.back().members.push_back(line.substr(i, j - i));
     } else {
-      h.fields.push_back(token);
+      fields.push_back({{line.substr(i, j - i)}, false});
     }
     i = j;
+  }
+  return fields;
+}
+
+// Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
+// by spaces); `tokens` expands groups.
+struct HeaderTokens {
+  std::vector<std::string> tokens;
+  std::vector<std::string> fields;
+};
+
+HeaderTokens TokenizeHeader(std::string_view line) {
+  HeaderTokens h;
+  for (const LineField& f : SplitFields(line)) {
+    std::string joined;
+    for (const std::string_view member : f.members) {
+      h.tokens.emplace_back(member);
+      if (!joined.empty()) joined += ' ';
+      joined += member;
+    }
+    h.fields.push_back(std::move(joined));
   }
   return h;
 }
@@ -153,28 +166,7 @@ HeaderTokens TokenizeHeader(std::string_view line) {
 // Sizes of the fields of a data line: 1 for a plain value, the member count for a `(a b c)` group.
 std::vector<std::size_t> FieldSizes(std::string_view line) {
   std::vector<std::size_t> sizes;
-  bool in_group = false;
-  std::size_t i = 0;
-  while (i < line.size()) {
-    const char c = line[i];
-    if (c == '(') {
-      in_group = true;
-      sizes.push_back(0);
-      ++i;
-    } else if (c == ')') {
-      in_group = false;
-      ++i;
-    } else if (IsSeparator(c)) {
-      ++i;
-    } else {
-      while (i < line.size() && !IsSeparator(line[i])) ++i;
-      if (in_group) {
-        ++sizes.back();
-      } else {
-        sizes.push_back(1);
-      }
-    }
-  }
+  for (const LineField& f : SplitFields(line)) sizes.push_back(f.members.size());
   return sizes;
 }
 

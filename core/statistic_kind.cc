@@ -1,12 +1,11 @@
 #include "core/statistic_kind.h"
 
-#include <array>
-#include <utility>
+#include "core/name_table.h"
 
 namespace plateau {
 namespace {
 
-constexpr std::array<std::pair<StatisticKind, std::string_view>, 8> kNames{{
+constexpr NameTable<StatisticKind, 8> kNames{{
     {StatisticKind::kMean, "mean"},
     {StatisticKind::kVariance, "variance"},
     {StatisticKind::kRms, "rms"},
@@ -19,18 +18,12 @@ constexpr std::array<std::pair<StatisticKind, std::string_view>, 8> kNames{{
 
 }  // namespace
 
-std::string_view KindName(StatisticKind kind) {
-  for (const auto& [k, name] : kNames) {
-    if (k == kind) return name;
-  }
-  return "unknown";
-}
+std::string_view KindName(StatisticKind kind) { return NameIn(kNames, kind); }
 
 std::optional<StatisticKind> ParseKind(std::string_view name) {
-  for (const auto& [k, n] : kNames) {
-    if (n == name && k != StatisticKind::kWeightedSum) return k;
-  }
-  return std::nullopt;
+  // plateau forms weighted sums itself (reference differences): not a kind to ask for.
+  const std::optional<StatisticKind> kind = ValueIn(kNames, name);
+  return kind == StatisticKind::kWeightedSum ? std::nullopt : kind;
 }
 
 int KindColumnCount(StatisticKind kind) {

@@ -1,6 +1,6 @@
 #include "daemon/alerts/smtp_grammar.h"
 
-#include <ctime>
+#include "daemon/presentation/number_format.h"
 
 namespace plateau {
 
@@ -46,12 +46,7 @@ std::string SmtpAuthPlainLine(const std::string& username, const std::string& pa
 }
 
 std::string SmtpDate(double seconds) {
-  const std::time_t t = static_cast<std::time_t>(seconds);
-  std::tm tm{};
-  gmtime_r(&t, &tm);
-  char buffer[64];
-  std::strftime(buffer, sizeof buffer, "%a, %d %b %Y %H:%M:%S +0000", &tm);
-  return buffer;
+  return FormatWallTime(seconds, "%a, %d %b %Y %H:%M:%S +0000");
 }
 
 std::string SmtpLetter(const EmailConfig& config, const AlertMessage& m, double now) {

@@ -38,14 +38,16 @@ std::string FormatTarget(Target::Kind kind, double value) {
   return kind == Target::Kind::kRelative ? FormatPercent(value) : FormatValue(value);
 }
 
-std::string FormatUtcTime(double wall) {
-  if (std::isnan(wall)) return "-";
+std::string FormatWallTime(double wall, const char* format) {
   const std::time_t t = static_cast<std::time_t>(wall);
   std::tm tm{};
   gmtime_r(&t, &tm);
-  char buffer[32];
-  std::strftime(buffer, sizeof buffer, "%Y-%m-%d %H:%M:%S UTC", &tm);
-  return buffer;
+  char buffer[64];
+  return std::strftime(buffer, sizeof buffer, format, &tm) > 0 ? buffer : "";
+}
+
+std::string FormatUtcTime(double wall) {
+  return std::isnan(wall) ? "-" : FormatWallTime(wall, "%Y-%m-%d %H:%M:%S UTC");
 }
 
 }  // namespace plateau

@@ -20,6 +20,8 @@ std::string FormatPercent(double fraction);
 std::string FormatDuration(double seconds);
 // A target half-width: "1.5 %" for a relative one, "0.002" for one in the statistic's units.
 std::string FormatTarget(Target::Kind kind, double value);
+// Wall-clock seconds since the epoch through a strftime `format`, in UTC (at most 63 bytes).
+std::string FormatWallTime(double wall, const char* format);
 // Wall-clock seconds since the epoch as "2026-12-02 10:15:00 UTC"; "-" when NaN.
 std::string FormatUtcTime(double wall);
 
