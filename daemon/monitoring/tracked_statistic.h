@@ -23,6 +23,8 @@ class TrackedStatistic {
   TrackedStatistic(StatisticConfig* config, SourceTail* tail, const StopRuleSettings& settings);
 
   // What one cycle says of it.
+  // Holds a document: why the next line is exempt is said at SnapshotRow (store/run_store.h).
+  // NOLINTNEXTLINE(bugprone-exception-escape)
   struct Evaluation {
     StatisticEstimate estimate;
     SnapshotRow row;

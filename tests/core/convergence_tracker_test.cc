@@ -131,5 +131,18 @@ TEST(ConvergenceTracker, NoTargetIsMonitoredAndStateRoundTrips) {
   EXPECT_TRUE(restored.met());
 }
 
+TEST(ConvergenceStateNames, EveryStateRoundTripsThroughItsName) {
+  // The store and the daemon's JSON answer carry states by name; status reads them back.
+  for (const ConvergenceState state :
+       {ConvergenceState::kNoData, ConvergenceState::kNotEnoughData, ConvergenceState::kWarmingUp,
+        ConvergenceState::kDrifting, ConvergenceState::kConverging, ConvergenceState::kMet,
+        ConvergenceState::kMonitored, ConvergenceState::kColumnMissing}) {
+    EXPECT_EQ(ConvergenceStateFromName(ConvergenceStateName(state)), state)
+        << ConvergenceStateName(state);
+  }
+  EXPECT_EQ(ConvergenceStateName(ConvergenceState::kColumnMissing), "column_missing");
+  EXPECT_EQ(ConvergenceStateFromName("finished"), std::nullopt);
+}
+
 }  // namespace
 }  // namespace plateau
