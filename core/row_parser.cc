@@ -94,54 +94,6 @@ std::string ComponentSuffix(std::size_t n, std::size_t k) {
   return "." + std::to_string(k);
 }
 
-// One field of a line: a plain token, or the members of a `( … )` group. Parentheses attached to
-// a name are part of it: `areaAverage(wallShearStress)` is one plain token (the surface average of
-// a vector), not a name followed by a group.
-struct LineField {
-  std::vector<std::string_view> members;
-  bool group = false;
-};
-
-// The one scanner of the `( … )` syntax, for header and data lines alike.
-std::vector<LineField> SplitFields(std::string_view line) {
-  std::vector<LineField> fields;
-  bool in_group = false;
-  std::size_t i = 0;
-  while (i < line.size()) {
-    const char c = line[i];
-    if (c == '(') {
-      in_group = true;
-      fields.push_back({{}, true});
-      ++i;
-      continue;
-    }
-    if (c == ')' || IsSeparator(c)) {
-      if (c == ')') in_group = false;
-      ++i;
-      continue;
-    }
-    std::size_t j = i;
-    while (j < line.size()) {
-      if (line[j] == '(' && j > i) {
-        const std::size_t close = MatchingParenthesis(line, j);
-        if (close == std::string_view::npos) break;
-        j = close + 1;
-      } else if (IsSeparator(line[j])) {
-        break;
-      } else {
-        ++j;
-      }
-    }
-    if (in_group) {
-      fields.back().members.push_back(line.substr(i, j - i));
-    } else {
-      fields.push_back({{line.substr(i, j - i)}, false});
-    }
-    i = j;
-  }
-  return fields;
-}
-
 // Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
 // by spaces); `tokens` expands groups.
 struct HeaderTokens {
@@ -151,14 +103,49 @@ struct HeaderTokens {
 
 HeaderTokens TokenizeHeader(std::string_view line) {
   HeaderTokens h;
-  for (const LineField& f : SplitFields(line)) {
-    std::string joined;
-    for (const std::string_view member : f.members) {
-      h.tokens.emplace_back(member);
-      if (!joined.empty()) joined += ' ';
-      joined += member;
+  std::string group;
+  bool in_group = false;
+  std::size_t i = 0;
+  while (i < line.size()) {
+    const char c = line[i];
+    if (c == '(') {
+      in_group = true;
+      group.clear();
+      ++i;
+      continue;
     }
-    h.fields.push_back(std::move(joined));
+    if (c == ')') {
+      if (in_group) h.fields.push_back(group);
+      in_group = false;
+      ++i;
+      continue;
+    }
+    if (IsSeparator(c)) {
+      ++i;
+      continue;
+    }
+    std::size_t j = i;
+    while (j < line.size()) {
+      if (line[j] == '(' && j > i) {
+        // Parentheses attached to a name are part of it: `areaAverage(wallShearStress)` is one
+        // field, the surface average of a vector, not a name followed by a group.
+        const std::size_t close = MatchingParenthesis(line, j);
+        if (close == std::string_view::npos) break;
+        j = close + 1;
+      } else if (IsSeparator(line[j])) {
+        break;
+      } else {
+        ++j;
+      }
+    }
+    std::string token(line.substr(i, j - i));
+    h.tokens.push_back(token);
+    if (in_group) {
+      group += group.empty() ? token : " " + token;
+    } else {
+      h.fields.push_back(token);
+    }
+    i = j;
   }
   return h;
 }
@@ -166,7 +153,28 @@ HeaderTokens TokenizeHeader(std::string_view line) {
 // Sizes of the fields of a data line: 1 for a plain value, the member count for a `(a b c)` group.
 std::vector<std::size_t> FieldSizes(std::string_view line) {
   std::vector<std::size_t> sizes;
-  for (const LineField& f : SplitFields(line)) sizes.push_back(f.members.size());
+  bool in_group = false;
+  std::size_t i = 0;
+  while (i < line.size()) {
+    const char c = line[i];
+    if (c == '(') {
+      in_group = true;
+      sizes.push_back(0);
+      ++i;
+    } else if (c == ')') {
+      in_group = false;
+      ++i;
+    } else if (IsSeparator(c)) {
+      ++i;
+    } else {
+      while (i < line.size() && !IsSeparator(line[i])) ++i;
+      if (in_group) {
+        ++sizes.back();
+      } else {
+        sizes.push_back(1);
+      }
+    }
+  }
   return sizes;
 }
 
