@@ -35,13 +35,19 @@ void AlertDispatcher::DispatchDue() {
     log_->error("cannot read the pending alerts: {}", status.message());
     return;
   }
+  // Each channel is made once for what is due now; a null one is no longer configured.
+  std::map<AlertChannelKind, std::unique_ptr<AlertChannel>> channels;
   std::map<AlertChannelKind, std::vector<DeliveryRow>> digests;
   for (const DeliveryRow& d : due) {
     if (!in_flight_.insert({d.event.id, d.channel}).second) continue;
     const std::optional<AlertChannelKind> kind = AlertChannelKindFromName(d.channel);
-    const std::unique_ptr<AlertChannel> channel =
-        kind ? MakeAlertChannel(*kind, io_, monitor_.config(), log_) : nullptr;
-    if (!channel) {
+    AlertChannel* channel = nullptr;
+    if (kind) {
+      auto [it, made] = channels.try_emplace(*kind);
+      if (made) it->second = MakeAlertChannel(*kind, io_, monitor_.config(), log_);
+      channel = it->second.get();
+    }
+    if (channel == nullptr) {
       Finish(d, Status::Error("the " + d.channel + " channel is no longer configured"));
     } else if (channel->sends_digest()) {
       digests[*kind].push_back(d);
@@ -53,10 +59,10 @@ void AlertDispatcher::DispatchDue() {
     std::vector<EventRow> events;
     for (const DeliveryRow& d : deliveries) events.push_back(d.event);
     // Each delivery is recorded on its own, with the one result.
-    MakeAlertChannel(kind, io_, monitor_.config(), log_)
-        ->Deliver(events, [this, deliveries = std::move(deliveries)](const Status& result) {
-          for (const DeliveryRow& d : deliveries) Finish(d, result);
-        });
+    channels.at(kind)->Deliver(events,
+                               [this, deliveries = std::move(deliveries)](const Status& result) {
+                                 for (const DeliveryRow& d : deliveries) Finish(d, result);
+                               });
   }
 }
 

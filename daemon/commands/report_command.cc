@@ -55,11 +55,6 @@ std::vector<double> NumbersOf(const JsonDocument& object, const char* key) {
   return numbers;
 }
 
-const JsonDocument& Member(const JsonDocument& object, const char* key) {
-  static const JsonDocument kNull;
-  return object.is_object() && object.contains(key) ? object[key] : kNull;
-}
-
 // Every n-th row, so that a plot has at most kMaxPlotPoints points (the last one always).
 std::vector<const HistoryRow*> Thinned(const std::vector<const HistoryRow*>& rows) {
   if (rows.size() <= kMaxPlotPoints) return rows;
@@ -82,7 +77,7 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonDocument& json
   if (const std::string decided = TextOr(json, "decided_by"); !decided.empty()) {
     html += "; decided by " + Html(decided);
   }
-  const JsonDocument& reference = Member(json, "reference");
+  const JsonDocument& reference = MemberOr(json, "reference");
   if (reference.is_object()) html += "<br>" + Html(TextOr(reference, "words"));
   html += "</p><div class=\"plots\">";
   const std::vector<const HistoryRow*> rows = Thinned(history);
@@ -116,7 +111,7 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonDocument& json
     shrink.HorizontalLine(latest.target_half_width, "target", "target");
   }
   html += shrink.Render();
-  const JsonDocument& acf = Member(json, "autocorrelation");
+  const JsonDocument& acf = MemberOr(json, "autocorrelation");
   if (acf.is_object() && acf.contains("rho")) {
     const double lag = NumberOr(acf, "lag_samples");
     const double tau = NumberOr(json, "integrated_time");
@@ -145,7 +140,7 @@ std::string StatisticSection(const SnapshotRow& latest, const JsonDocument& json
 
 std::string ProfileSection(const JsonDocument& summary) {
   const std::string name = TextOr(summary, "name");
-  const bool wall = Member(summary, "wall_units").is_boolean() && summary["wall_units"].get<bool>();
+  const bool wall = MemberOr(summary, "wall_units").is_boolean() && summary["wall_units"].get<bool>();
   std::string html = "<h3>" + Html(name) + "</h3><p>" + Html(TextOr(summary, "state_reason")) +
                      "</p><div class=\"plots\">";
   if (summary.contains("departure")) {
@@ -158,7 +153,7 @@ std::string ProfileSection(const JsonDocument& summary) {
     return html + balance.Render() + "</div>";
   }
   std::vector<double> y, v, e, reference_y, reference_v;
-  const JsonDocument& points = Member(summary, "points");
+  const JsonDocument& points = MemberOr(summary, "points");
   for (const JsonDocument& p : points.is_array() ? points : JsonDocument::array()) {
     y.push_back(NumberOr(p, wall ? "y_plus" : "position"));
     v.push_back(NumberOr(p, wall ? "value_plus" : "value"));

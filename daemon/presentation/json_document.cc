@@ -48,6 +48,12 @@ const JsonDocument* FindMember(const JsonDocument& object, std::string_view key)
   return it == object.end() ? nullptr : &*it;
 }
 
+const JsonDocument& MemberOr(const JsonDocument& object, std::string_view key) {
+  static const JsonDocument kNull;
+  const JsonDocument* member = FindMember(object, key);
+  return member != nullptr ? *member : kNull;
+}
+
 double NumberOr(const JsonDocument& object, const char* key) {
   if (!object.is_object()) return std::numeric_limits<double>::quiet_NaN();
   const auto it = object.find(key);

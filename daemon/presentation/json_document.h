@@ -27,6 +27,9 @@ std::optional<JsonDocument> ParseJsonDocument(std::string_view text, std::string
 // The member `key` of an object; nullptr when absent or `object` is not an object.
 const JsonDocument* FindMember(const JsonDocument& object, std::string_view key);
 
+// The member `key` of an object, or null when absent or `object` is not an object.
+const JsonDocument& MemberOr(const JsonDocument& object, std::string_view key);
+
 // A member's number (NaN when absent, null or not a number) or string (empty likewise).
 double NumberOr(const JsonDocument& object, const char* key);
 std::string TextOr(const JsonDocument& object, const char* key);

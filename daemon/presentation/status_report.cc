@@ -229,10 +229,6 @@ std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContex
     return object.is_object() && object.contains(key) && object[key].is_boolean() &&
            object[key].get<bool>();
   };
-  const auto member = [](const JsonDocument& object, const char* key) -> const JsonDocument& {
-    static const JsonDocument kNull;
-    return object.is_object() && object.contains(key) ? object[key] : kNull;
-  };
   LatestView v;
   v.run_name = TextOr(d, "run");
   v.cycle = static_cast<std::int64_t>(NumberOr(d, "cycle"));
@@ -240,11 +236,11 @@ std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContex
   v.last_sample_time = NumberOr(d, "last_sample_time");
   v.last_sample_wall_time = NumberOr(d, "last_sample_read_at");
   v.run_met = flag(d, "run_met");
-  v.remaining_time = NumberOr(member(d, "time_to_target"), "simulated");
-  v.remaining_wall = NumberOr(member(d, "time_to_target"), "wall_seconds");
+  v.remaining_time = NumberOr(MemberOr(d, "time_to_target"), "simulated");
+  v.remaining_wall = NumberOr(MemberOr(d, "time_to_target"), "wall_seconds");
   c->store_path = TextOr(d, "store");
   c->answered_by = TextOr(d, "answered_by");
-  const JsonDocument& daemon = member(d, "daemon");
+  const JsonDocument& daemon = MemberOr(d, "daemon");
   const double pid = NumberOr(daemon, "pid");
   c->daemon_pid = !std::isnan(pid) ? static_cast<long>(pid) : (flag(daemon, "running") ? -1 : 0);
   for (const JsonDocument& s : d["statistics"]) {
@@ -268,20 +264,20 @@ std::optional<LatestView> LatestViewFromJson(const JsonDocument& d, StatusContex
     row.samples_used = static_cast<std::int64_t>(NumberOr(s, "samples_used"));
     row.last_time = NumberOr(s, "last_time");
     row.confidence = NumberOr(s, "confidence");
-    row.remaining_time = NumberOr(member(s, "time_to_target"), "simulated");
-    row.remaining_wall = NumberOr(member(s, "time_to_target"), "wall_seconds");
-    row.reference_verdict = TextOr(member(s, "reference"), "verdict");
-    if (member(s, "target").is_object()) {
+    row.remaining_time = NumberOr(MemberOr(s, "time_to_target"), "simulated");
+    row.remaining_wall = NumberOr(MemberOr(s, "time_to_target"), "wall_seconds");
+    row.reference_verdict = TextOr(MemberOr(s, "reference"), "verdict");
+    if (MemberOr(s, "target").is_object()) {
       row.target_kind = TextOr(s["target"], "kind") == "relative" ? Target::Kind::kRelative
                                                                   : Target::Kind::kAbsolute;
       row.target_value = NumberOr(s["target"], "value");
     }
     row.target_half_width = NumberOr(s, "target_half_width");
-    row.met_at_time = NumberOr(member(s, "met_at"), "simulated_time");
-    row.met_at_wall = NumberOr(member(s, "met_at"), "wall_time");
+    row.met_at_time = NumberOr(MemberOr(s, "met_at"), "simulated_time");
+    row.met_at_wall = NumberOr(MemberOr(s, "met_at"), "wall_time");
     v.statistics.push_back(std::move(row));
   }
-  for (const JsonDocument& f : member(d, "files").is_array() ? d["files"] : JsonDocument::array()) {
+  for (const JsonDocument& f : MemberOr(d, "files").is_array() ? d["files"] : JsonDocument::array()) {
     FileProgress p;
     p.path = TextOr(f, "path");
     p.source = TextOr(f, "source");
