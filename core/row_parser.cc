@@ -94,28 +94,26 @@ std::string ComponentSuffix(std::size_t n, std::size_t k) {
   return "." + std::to_string(k);
 }
 
-// Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
-// by spaces); `tokens` expands groups.
-struct HeaderTokens {
-  std::vector<std::string> tokens;
-  std::vector<std::string> fields;
-};
-
-HeaderTokens TokenizeHeader(std::string_view line) {
-  HeaderTokens h;
-  std::string group;
+// The one scanner of the `( ... )` group syntax, for header and data lines alike. It walks `line`
+// and tells `visit` what it meets, in order: OpenGroup() at '(', CloseGroup() at ')', and
+// Token(text, in_group) for every run of non-separator bytes. In a header, parentheses attached
+// to a name are part of it (`areaAverage(wallShearStress)` is one field, the surface average of a
+// vector, not a name followed by a group); a data line has no such names
+// (`names_hold_parentheses` false). A ')' without its '(' only ends a group that is open.
+template <typename Visitor>
+void ScanGroups(std::string_view line, bool names_hold_parentheses, Visitor& visit) {
   bool in_group = false;
   std::size_t i = 0;
   while (i < line.size()) {
     const char c = line[i];
     if (c == '(') {
       in_group = true;
-      group.clear();
+      visit.OpenGroup();
       ++i;
       continue;
     }
     if (c == ')') {
-      if (in_group) h.fields.push_back(group);
+      visit.CloseGroup(in_group);
       in_group = false;
       ++i;
       continue;
@@ -126,9 +124,7 @@ HeaderTokens TokenizeHeader(std::string_view line) {
     }
     std::size_t j = i;
     while (j < line.size()) {
-      if (line[j] == '(' && j > i) {
-        // Parentheses attached to a name are part of it: `areaAverage(wallShearStress)` is one
-        // field, the surface average of a vector, not a name followed by a group.
+      if (names_hold_parentheses && line[j] == '(' && j > i) {
         const std::size_t close = MatchingParenthesis(line, j);
         if (close == std::string_view::npos) break;
         j = close + 1;
@@ -138,44 +134,59 @@ HeaderTokens TokenizeHeader(std::string_view line) {
         ++j;
       }
     }
-    std::string token(line.substr(i, j - i));
-    h.tokens.push_back(token);
-    if (in_group) {
-      group += group.empty() ? token : " " + token;
-    } else {
-      h.fields.push_back(token);
-    }
+    visit.Token(line.substr(i, j - i), in_group);
     i = j;
   }
+}
+
+// Tokens of a header line. `fields` keeps a parenthesised group as one field (its members joined
+// by spaces), pushed when the group closes (an unclosed group is no field); `tokens` expands
+// groups.
+struct HeaderTokens {
+  std::vector<std::string> tokens;
+  std::vector<std::string> fields;
+  std::string group;
+
+  void OpenGroup() { group.clear(); }
+  void CloseGroup(bool was_open) {
+    if (was_open) fields.push_back(group);
+  }
+  void Token(std::string_view text, bool in_group) {
+    tokens.emplace_back(text);
+    if (in_group) {
+      group += group.empty() ? tokens.back() : " " + tokens.back();
+    } else {
+      fields.push_back(tokens.back());
+    }
+  }
+};
+
+HeaderTokens TokenizeHeader(std::string_view line) {
+  HeaderTokens h;
+  ScanGroups(line, /*names_hold_parentheses=*/true, h);
   return h;
 }
 
-// Sizes of the fields of a data line: 1 for a plain value, the member count for a `(a b c)` group.
-std::vector<std::size_t> FieldSizes(std::string_view line) {
+// Sizes of the fields of a data line: 1 for a plain value, the member count for a `(a b c)` group
+// (counted from its '(', closed or not).
+struct FieldSizeCounter {
   std::vector<std::size_t> sizes;
-  bool in_group = false;
-  std::size_t i = 0;
-  while (i < line.size()) {
-    const char c = line[i];
-    if (c == '(') {
-      in_group = true;
-      sizes.push_back(0);
-      ++i;
-    } else if (c == ')') {
-      in_group = false;
-      ++i;
-    } else if (IsSeparator(c)) {
-      ++i;
+
+  void OpenGroup() { sizes.push_back(0); }
+  void CloseGroup(bool) {}
+  void Token(std::string_view, bool in_group) {
+    if (in_group) {
+      ++sizes.back();
     } else {
-      while (i < line.size() && !IsSeparator(line[i])) ++i;
-      if (in_group) {
-        ++sizes.back();
-      } else {
-        sizes.push_back(1);
-      }
+      sizes.push_back(1);
     }
   }
-  return sizes;
+};
+
+std::vector<std::size_t> FieldSizes(std::string_view line) {
+  FieldSizeCounter counter;
+  ScanGroups(line, /*names_hold_parentheses=*/false, counter);
+  return counter.sizes;
 }
 
 }  // namespace

@@ -9,12 +9,14 @@
 #include <optional>
 
 #include "core/row_parser.h"
+#include "daemon/commands/command_line.h"
 #include "core/source_statistics.h"
 #include "daemon/presentation/analysis_report.h"
 #include "daemon/presentation/number_format.h"
 #include "daemon/presentation/analysis_result.h"
 #include "daemon/ingest/probe_file_reader.h"
 #include "daemon/ingest/series_catalog.h"
+#include "daemon/ingest/series_sink.h"
 
 namespace plateau {
 namespace {
@@ -35,7 +37,6 @@ struct AnalyzeOptions {
   EvaluationOptions evaluation;
   std::size_t capacity = BlockHistory::kDefaultCapacity;
   bool json = false;
-  bool help = false;
 };
 
 std::vector<std::string> SplitList(const std::string& list) {
@@ -53,118 +54,120 @@ std::vector<std::string> SplitList(const std::string& list) {
   return items;
 }
 
-std::optional<double> ParseDouble(const std::string& text) {
-  double value = 0.0;
-  const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-  if (ec != std::errc() || ptr != text.data() + text.size() || !std::isfinite(value)) {
-    return std::nullopt;
-  }
-  return value;
-}
+// The command line of analyze, declared once: the parser and the --help text. Values are
+// checked as they are read; the cross-option check (blocks against batches) is RunAnalyzeCommand's.
+std::unique_ptr<CLI::App> AnalyzeCommandLine(AnalyzeOptions& o) {
+  auto app = MakeCommandLine("analyze", R"(Estimates every requested time average of existing probe files, with its confidence interval,
+integrated autocorrelation time, effective sample size, warm-up cut and drift test. The files
+(folders are searched through) are grouped into series, each reported on its own: a solver
+function's file in start-time folders (output/probes/0/U, output/probes/2000/U) or numbered
+restart folders (run1/, run2/) is one restarted run, read in the order of its first times, with
+rows whose time is not after the last one read skipped as restart overlap. Files that are not
+time series (logs, binary files, tables of text) are left out, each with its reason.
 
-std::optional<AnalyzeOptions> ParseOptions(const std::vector<std::string>& args,
-                                           std::string* error) {
-  AnalyzeOptions o;
-  for (std::size_t i = 0; i < args.size(); ++i) {
-    const std::string& a = args[i];
-    const auto value = [&]() -> std::optional<std::string> {
-      if (i + 1 >= args.size()) {
-        *error = a + " needs a value";
-        return std::nullopt;
-      }
-      return args[++i];
-    };
-    if (a == "--help" || a == "-h") {
-      o.help = true;
-    } else if (a == "--json") {
-      o.json = true;
-    } else if (a == "--time" || a == "--means" || a == "--variance" || a == "--rms" ||
-               a == "--covariance" || a == "--third-moment" || a == "--tke" ||
-               a == "--confidence" || a == "--batches" || a == "--warmup" || a == "--blocks" ||
-               a == "--scale" || a == "--weighting") {
-      const auto v = value();
-      if (!v) return std::nullopt;
-      if (a == "--time") o.time_column = *v;
-      if (a == "--means") o.means = *v;
-      if (a == "--variance") o.variance_lists.push_back(*v);
-      if (a == "--rms") o.rms_lists.push_back(*v);
-      if (a == "--covariance") o.covariances.push_back(*v);
-      if (a == "--third-moment") o.third_moments.push_back(*v);
-      if (a == "--tke") o.tkes.push_back(*v);
-      if (a == "--scale") {
-        const std::size_t equals = v->rfind('=');
-        const auto factor =
-            equals == std::string::npos ? std::nullopt : ParseDouble(v->substr(equals + 1));
-        if (!factor || *factor == 0.0 || equals == 0) {
-          *error = "--scale takes COLUMN=FACTOR with a factor other than 0, such as tau.x=-1; "
-                   "got '" + *v + "'";
-          return std::nullopt;
-        }
-        o.scales.push_back({v->substr(0, equals), *factor});
-      }
-      if (a == "--weighting") {
-        const std::optional<Weighting> w = ParseWeighting(*v);
-        if (!w) {
-          *error = "--weighting takes auto, time or samples; got '" + *v + "'";
-          return std::nullopt;
-        }
-        o.weighting = *w;
-      }
-      if (a == "--confidence") {
-        const auto c = ParseDouble(*v);
-        if (!c || *c <= 0.0 || *c >= 1.0) {
-          *error = "--confidence takes a fraction between 0 and 1, such as 0.95; got '" + *v + "'";
-          return std::nullopt;
-        }
-        o.evaluation.confidence = *c;
-      }
-      if (a == "--batches") {
-        const auto k = ParseDouble(*v);
-        if (!k || *k != std::floor(*k) || *k < 2 || *k > 1000) {
-          *error = "--batches takes a whole number from 2 to 1000 (20 to 30 is usual); got '" +
-                   *v + "'";
-          return std::nullopt;
-        }
-        o.evaluation.batches = static_cast<int>(*k);
-      }
-      if (a == "--warmup") {
-        if (*v == "auto") {
-          o.evaluation.warmup = WarmupPolicy::kAuto;
-        } else if (*v == "none") {
-          o.evaluation.warmup = WarmupPolicy::kNone;
-        } else if (const auto t = ParseDouble(*v)) {
-          o.evaluation.warmup = WarmupPolicy::kFixedTime;
-          o.evaluation.warmup_time = *t;
-        } else {
-          *error = "--warmup takes auto, none or a time in the units of the time column; got '" +
-                   *v + "'";
-          return std::nullopt;
-        }
-      }
-      if (a == "--blocks") {
-        const auto c = ParseDouble(*v);
-        if (!c || *c < 64 || *c > (1 << 24) || *c != std::floor(*c)) {
-          *error = "--blocks takes a whole number from 64 to 16777216; got '" + *v + "'";
-          return std::nullopt;
-        }
-        o.capacity = static_cast<std::size_t>(*c);
-      }
-    } else if (!a.empty() && a[0] == '-') {
-      *error = "unknown option " + a + " (see plateau analyze --help)";
-      return std::nullopt;
-    } else {
-      o.files.push_back(a);
-    }
-  }
-  if (!o.help && o.files.empty()) {
-    *error = "no probe file given (see plateau analyze --help)";
-    return std::nullopt;
-  }
-  if (o.capacity < 4 * static_cast<std::size_t>(o.evaluation.batches)) {
-    *error = "--blocks must be at least four times --batches";
-    return std::nullopt;
-  }
-  return o;
+By default every column except the time column gets its mean.)",
+                             "exit status: 0 analysed, 2 bad usage or unusable input.");
+  const auto one = CLI::MultiOptionPolicy::TakeLast;
+  app->add_option("files", o.files, "probe files, folders (searched through) or globs")
+      ->type_name("DIR_OR_FILE");
+  app->add_option("--time", o.time_column,
+                  "time column, by name or 1-based number (default: the first column)")
+      ->type_name("COL")
+      ->multi_option_policy(one);
+  app->add_option("--means", o.means,
+                  "columns whose mean is estimated: all (default), none, or a,b,c")
+      ->type_name("LIST")
+      ->multi_option_policy(one);
+  const auto repeatable = [&](const char* name, std::vector<std::string>& lists,
+                              const char* type, const char* what) {
+    app->add_option(name, lists, what)->type_name(type)->allow_extra_args(false);
+  };
+  repeatable("--variance", o.variance_lists, "LIST",
+             "add the variance <x'x'> of each listed column (or all)");
+  repeatable("--rms", o.rms_lists, "LIST", "add the rms sqrt(<x'x'>) of each listed column (or all)");
+  repeatable("--covariance", o.covariances, "A,B",
+             "add the covariance <a'b'>, e.g. the Reynolds shear stress (repeatable)");
+  repeatable("--third-moment", o.third_moments, "A,B,C",
+             "add the third moment <a'b'c'>, columns may repeat: u,u,v (repeatable)");
+  repeatable("--tke", o.tkes, "U,V,W",
+             "add the turbulent kinetic energy (<u'u'>+<v'v'>+<w'w'>)/2 (repeatable)");
+  app->add_option_function<double>(
+         "--confidence", [&o](double c) { o.evaluation.confidence = c; },
+         "confidence level of the intervals (default 0.95)")
+      ->check(ValueCheck(
+          [](const std::string& v) {
+            const auto c = FiniteNumber(v);
+            return c && *c > 0.0 && *c < 1.0;
+          },
+          "takes a fraction between 0 and 1, such as 0.95"))
+      ->type_name("C")
+      ->multi_option_policy(one);
+  app->add_option_function<std::string>(
+         "--batches",
+         [&o](const std::string& v) { o.evaluation.batches = static_cast<int>(*FiniteNumber(v)); },
+         "number of non-overlapping batches (default 20)")
+      ->check(ValueCheck(
+          [](const std::string& v) {
+            const auto k = FiniteNumber(v);
+            return k && *k == std::floor(*k) && *k >= 2 && *k <= 1000;
+          },
+          "takes a whole number from 2 to 1000 (20 to 30 is usual)"))
+      ->type_name("K")
+      ->multi_option_policy(one);
+  app->add_option_function<std::string>(
+         "--warmup",
+         [&o](const std::string& v) {
+           o.evaluation.warmup = v == "auto"   ? WarmupPolicy::kAuto
+                                 : v == "none" ? WarmupPolicy::kNone
+                                               : WarmupPolicy::kFixedTime;
+           if (o.evaluation.warmup == WarmupPolicy::kFixedTime) {
+             o.evaluation.warmup_time = *FiniteNumber(v);
+           }
+         },
+         "auto (MSER-5, default), none, or a time before which samples are dropped")
+      ->check(ValueCheck(
+          [](const std::string& v) { return v == "auto" || v == "none" || FiniteNumber(v); },
+          "takes auto, none or a time in the units of the time column"))
+      ->type_name("W")
+      ->multi_option_policy(one);
+  app->add_option_function<std::string>(
+         "--blocks",
+         [&o](const std::string& v) { o.capacity = static_cast<std::size_t>(*FiniteNumber(v)); },
+         "blocks kept per statistic (default 4096; memory per statistic)")
+      ->check(ValueCheck(
+          [](const std::string& v) {
+            const auto c = FiniteNumber(v);
+            return c && *c >= 64 && *c <= (1 << 24) && *c == std::floor(*c);
+          },
+          "takes a whole number from 64 to 16777216"))
+      ->type_name("N")
+      ->multi_option_policy(one);
+  app->add_option_function<std::string>(
+         "--scale",
+         [&o](const std::string& v) {
+           const std::size_t equals = v.rfind('=');
+           o.scales.push_back({v.substr(0, equals), *FiniteNumber(v.substr(equals + 1))});
+         },
+         "multiply column COL by F first: a sign, tau.x=-1, or a density (repeatable)")
+      ->check(ValueCheck(
+          [](const std::string& v) {
+            const std::size_t equals = v.rfind('=');
+            if (equals == std::string::npos || equals == 0) return false;
+            const auto factor = FiniteNumber(v.substr(equals + 1));
+            return factor && *factor != 0.0;
+          },
+          "takes COLUMN=FACTOR with a factor other than 0, such as tau.x=-1"))
+      ->type_name("COL=F")
+      ->allow_extra_args(false);
+  app->add_option_function<std::string>(
+         "--weighting", [&o](const std::string& v) { o.weighting = *ParseWeighting(v); },
+         "time (a sample weighs the time it stands for), samples, or auto (time if spacing varies)")
+      ->check(ValueCheck([](const std::string& v) { return ParseWeighting(v).has_value(); },
+                         "takes auto, time or samples"))
+      ->type_name("W")
+      ->multi_option_policy(one);
+  app->add_flag("--json", o.json, "one JSON object instead of the table");
+  return app;
 }
 
 // Columns named by a list option: "all" is every column but the time column.
@@ -205,28 +208,20 @@ std::vector<StatisticRequest> BuildRequests(const AnalyzeOptions& o,
   return requests;
 }
 
-// Feeds one file's rows into the source; creates the source from the first file's columns.
-// The catalog has already left out segments with another header; the check here is the guard.
-class AnalyzeSink : public RowSink {
+// What the series sink meets while analyze reads a segment: the series' statistics made from the
+// first header, notes for restart overlaps, the first bad lines of each file as examples, and an
+// error that stops the command (a column the options name is missing; the catalog has already
+// left out segments with another header, so a refused one is a guard that should not fire).
+class AnalyzeOwner : public SeriesSinkOwner {
  public:
-  AnalyzeSink(const AnalyzeOptions& options, const std::vector<StatisticRequest>& requests,
-              std::optional<SourceStatistics>& source, FileSummary& summary,
-              std::vector<std::string>& notes)
-      : options_(options),
-        requests_(requests),
-        source_(source),
-        summary_(summary),
-        notes_(notes) {}
+  AnalyzeOwner(const AnalyzeOptions& options, const std::vector<StatisticRequest>& requests,
+               std::optional<SourceStatistics>& source, FileSummary& summary,
+               std::vector<std::string>& notes)
+      : options_(options), requests_(requests), source_(source), summary_(summary), notes_(notes) {}
 
   const std::string& error() const { return error_; }
 
-  void OnColumns(const std::vector<std::string>& names) override {
-    if (source_) {
-      if (names != source_->columns()) {
-        error_ = summary_.path + ": its columns differ from the first file's";
-      }
-      return;
-    }
+  void StartSeries(const std::vector<std::string>& names, const std::string& path) override {
     std::string error;
     source_ = SourceStatistics::Make(names, options_.time_column, requests_, options_.capacity,
                                      &error);
@@ -236,97 +231,53 @@ class AnalyzeSink : public RowSink {
       source_->SetWeighting(options_.weighting);
       source_->SetScales(options_.scales, &error);  // leaves `error` empty when every column is known
     }
-    if (!source_ || !error.empty()) error_ = summary_.path + ": " + error;
+    if (!source_ || !error.empty()) error_ = path + ": " + error;
   }
 
-  void OnRow(std::uint64_t, const double* values) override {
-    if (!error_.empty() || !source_) return;
-    ++summary_.rows;
-    if (!source_->Add(values)) {
-      ++summary_.restart_overlap;
-      return;
-    }
-    const double time = values[source_->time_index()];
-    if (std::isnan(summary_.first_time)) summary_.first_time = time;
-    summary_.last_time = time;
-    if (source_->gate().skipped() > reported_skipped_) ReportOverlap();
+  void RefuseSegment(const std::string&, const std::string& reason) override { error_ = reason; }
+
+  void ReportOverlap(const TimeOrderGate::Overlap& o, const std::string& path) override {
+    notes_.push_back("restart overlap: " + std::to_string(o.samples) + " rows with times " +
+                     FormatValue(o.first_time) + " to " + FormatValue(o.last_time) +
+                     " were already recorded and were skipped (" + path + ")");
   }
 
-  void OnBadLine(std::uint64_t line, std::string_view reason) override {
+  void ReportBadLine(const std::string& path, std::uint64_t line,
+                     std::string_view reason) override {
     if (summary_.bad_line_examples.size() < kBadLineExamplesPerFile) {
-      summary_.bad_line_examples.push_back(summary_.path + ":" + std::to_string(line) + ": " +
+      summary_.bad_line_examples.push_back(path + ":" + std::to_string(line) + ": " +
                                            std::string(reason));
     }
   }
 
  private:
-  void ReportOverlap() {
-    const TimeOrderGate::Overlap o = source_->gate().TakeFinishedOverlap();
-    reported_skipped_ = source_->gate().skipped();
-    if (o.samples == 0) return;
-    notes_.push_back("restart overlap: " + std::to_string(o.samples) + " rows with times " +
-                     FormatValue(o.first_time) + " to " + FormatValue(o.last_time) +
-                     " were already recorded and were skipped (" + summary_.path + ")");
-  }
-
   const AnalyzeOptions& options_;
   const std::vector<StatisticRequest>& requests_;
   std::optional<SourceStatistics>& source_;
   FileSummary& summary_;
   std::vector<std::string>& notes_;
   std::string error_;
-  std::uint64_t reported_skipped_ = 0;
 };
 
 }  // namespace
 
 std::string AnalyzeUsage() {
-  return R"(usage: plateau analyze DIR_OR_FILE... [options]
-
-Estimates every requested time average of existing probe files, with its confidence interval,
-integrated autocorrelation time, effective sample size, warm-up cut and drift test. The files
-(folders are searched through) are grouped into series, each reported on its own: a solver
-function's file in start-time folders (output/probes/0/U, output/probes/2000/U) or numbered
-restart folders (run1/, run2/) is one restarted run, read in the order of its first times, with
-rows whose time is not after the last one read skipped as restart overlap. Files that are not
-time series (logs, binary files, tables of text) are left out, each with its reason.
-
-By default every column except the time column gets its mean.
-
-options:
-  --time COL            time column, by name or 1-based number (default: the first column)
-  --means LIST          columns whose mean is estimated: all (default), none, or a,b,c
-  --variance LIST       add the variance <x'x'> of each listed column (or all)
-  --rms LIST            add the rms sqrt(<x'x'>) of each listed column (or all)
-  --covariance A,B      add the covariance <a'b'>, e.g. the Reynolds shear stress (repeatable)
-  --third-moment A,B,C  add the third moment <a'b'c'>, columns may repeat: u,u,v (repeatable)
-  --tke U,V,W           add the turbulent kinetic energy (<u'u'>+<v'v'>+<w'w'>)/2 (repeatable)
-  --confidence C        confidence level of the intervals (default 0.95)
-  --batches K           number of non-overlapping batches (default 20)
-  --warmup W            auto (MSER-5, default), none, or a time before which samples are dropped
-  --blocks N            blocks kept per statistic (default 4096; memory per statistic)
-  --scale COL=F         multiply column COL by F before any statistic, e.g. a solver's sign
-                        convention tau.x=-1 or a density (repeatable)
-  --weighting W         auto (default): each sample weighs the simulated time it stands for
-                        when the first spacings vary by more than 1 %, else counts once;
-                        time or samples to choose
-  --json                one JSON object instead of the table
-
-exit status: 0 analysed, 2 bad usage or unusable input.
-)";
+  AnalyzeOptions ignored;
+  return AnalyzeCommandLine(ignored)->help();
 }
 
 int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  std::string error;
-  const std::optional<AnalyzeOptions> parsed = ParseOptions(args, &error);
-  if (!parsed) {
-    err << "plateau analyze: " << error << "\n";
+  AnalyzeOptions options;
+  if (const auto exit_code = ParseCommandLine(*AnalyzeCommandLine(options), args, out, err)) {
+    return *exit_code;
+  }
+  if (options.files.empty()) {
+    err << "plateau analyze: no probe file given (see plateau analyze --help)\n";
     return 2;
   }
-  const AnalyzeOptions& options = *parsed;
-  if (options.help) {
-    out << AnalyzeUsage();
-    return 0;
+  if (options.capacity < 4 * static_cast<std::size_t>(options.evaluation.batches)) {
+    err << "plateau analyze: --blocks must be at least four times --batches\n";
+    return 2;
   }
   for (const std::string& path : options.files) {
     // A file named outright (no wildcard) must exist: say so as the system does.
@@ -369,22 +320,30 @@ int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, s
     SourceAnalysis analysis;
     analysis.name = series.name;
     analysis.series = series.glob;
-    std::optional<SourceStatistics> source;
+    const std::vector<std::string> header_names;  // no `columns:` here: the header names them
+    SeriesIngest ingest;
+    std::optional<SourceStatistics>& source = ingest.source;
     for (const SegmentSample& segment : series.segments) {
       FileSummary summary;
       summary.path = segment.path;
+      SegmentRows rows;
       RowParser parser = ParserFor(segment.path);
-      AnalyzeSink sink(options, requests, source, summary, analysis.notes);
+      AnalyzeOwner owner(options, requests, source, summary, analysis.notes);
+      SeriesSink sink(ingest, rows, segment.path, parser, header_names, owner);
       const FileReadResult read =
-          ReadProbeFile(segment.path, 0, parser, sink, [&] { return sink.error().empty(); });
+          ReadProbeFile(segment.path, 0, parser, sink, [&] { return owner.error().empty(); });
       if (!read.ok) {
         err << "plateau analyze: " << read.error << "\n";
         return 2;
       }
-      if (!sink.error().empty()) {
-        err << "plateau analyze: " << sink.error() << "\n";
+      if (!owner.error().empty()) {
+        err << "plateau analyze: " << owner.error() << "\n";
         return 2;
       }
+      summary.rows = rows.rows;
+      summary.restart_overlap = rows.overlap_rows;
+      summary.first_time = rows.first_recorded_time;
+      summary.last_time = rows.last_recorded_time;
       summary.bad_lines = parser.bad_lines();
       summary.unterminated_last_line = parser.pending_bytes() > 0;
       analysis.files.push_back(std::move(summary));

@@ -2,7 +2,6 @@
 
 #include <glob.h>
 
-#include <charconv>
 #include <cmath>
 #include <filesystem>
 #include <map>
@@ -11,6 +10,7 @@
 #include <sstream>
 
 #include "config/config_loader.h"
+#include "daemon/commands/command_line.h"
 #include "daemon/ingest/series_catalog.h"
 #include "daemon/presentation/number_format.h"
 
@@ -39,15 +39,6 @@ std::string Quoted(const std::string& text) {
     out += c;
   }
   return out + "\"";
-}
-
-std::optional<double> Fraction(const std::string& text) {
-  double value = 0.0;
-  const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-  if (ec != std::errc() || ptr != text.data() + text.size() || !(value > 0.0) || value >= 1.0) {
-    return std::nullopt;
-  }
-  return value;
 }
 
 // The columns of a source as one comment: all of them when few, else the first ones and a count.
@@ -241,53 +232,73 @@ void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& p
   WriteWallUnitsProposal(catalog.series, column_uses, out);
 }
 
-}  // namespace
-
-std::string InitUsage() {
-  return R"(usage: plateau init DIR_OR_GLOB... [--relative R] [--confidence C] > run.yaml
-
-Reads the headers of the probe files under the folders or matched by the globs (quote them:
-'output/*/*/*') and writes a commented starter config to stdout: one source per series (a solver
-function's file, its restart segments in start-time folders such as output/probes/0/U and
-output/probes/2000/U taken as one), a mean statistic per data column, each with a relative target
-R (default 0.01) at confidence C (default 0.95); a profile for a line of probes; a wall-units
-proposal where a wall shear stress is found. Files that are not time series (logs, binary files,
-tables of text) are left out, each with its reason on stderr.
-)";
+// A check for --relative and --confidence.
+CLI::Validator FractionCheck() {
+  return ValueCheck(
+      [](const std::string& v) {
+        const auto f = FiniteNumber(v);
+        return f && *f > 0.0 && *f < 1.0;
+      },
+      "takes a fraction between 0 and 1");
 }
 
-std::string ValidateUsage() {
-  return R"(usage: plateau validate CONFIG
-
-Checks a config the way plateau watch would, without starting anything: every problem is listed as
-FILE:LINE:COLUMN. Exit status 0 valid, 2 not.
-)";
-}
-
-int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+struct InitOptions {
   std::vector<std::string> patterns;
   double relative = 0.01;
   double confidence = 0.95;
-  for (std::size_t i = 0; i < args.size(); ++i) {
-    const std::string& a = args[i];
-    if (a == "--help" || a == "-h") {
-      out << InitUsage();
-      return 0;
-    }
-    if (a == "--relative" || a == "--confidence") {
-      const auto v = i + 1 < args.size() ? Fraction(args[++i]) : std::nullopt;
-      if (!v) {
-        err << "plateau init: " << a << " takes a fraction between 0 and 1\n";
-        return 2;
-      }
-      (a == "--relative" ? relative : confidence) = *v;
-    } else if (!a.empty() && a[0] == '-') {
-      err << "plateau init: unknown option " << a << " (see plateau init --help)\n";
-      return 2;
-    } else {
-      patterns.push_back(a);
-    }
+};
+
+// The command line of init, declared once: the parser and the --help text.
+std::unique_ptr<CLI::App> InitCommandLine(InitOptions& o) {
+  auto app = MakeCommandLine("init", R"(Reads the headers of the probe files under the folders or matched by the globs (quote them:
+'output/*/*/*') and writes a commented starter config to stdout: one source per series (a solver
+function's file, its restart segments in start-time folders such as output/probes/0/U and
+output/probes/2000/U taken as one), a mean statistic per data column, each with a relative target
+R at confidence C; a profile for a line of probes; a wall-units proposal where a wall shear stress
+is found. Files that are not time series (logs, binary files, tables of text) are left out, each
+with its reason on stderr.)",
+                             "example: plateau init output --relative 0.01 > run.yaml");
+  app->add_option("patterns", o.patterns, "folders or quoted globs of probe files")
+      ->type_name("DIR_OR_GLOB");
+  app->add_option("--relative", o.relative, "relative half-width of every target (default 0.01)")
+      ->check(FractionCheck())
+      ->type_name("R")
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  app->add_option("--confidence", o.confidence, "confidence level of the targets (default 0.95)")
+      ->check(FractionCheck())
+      ->type_name("C")
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  return app;
+}
+
+// The command line of validate: one config.
+std::unique_ptr<CLI::App> ValidateCommandLine(std::string& config_path) {
+  auto app = MakeCommandLine("validate",
+                             "Checks a config the way plateau watch would, without starting "
+                             "anything: every problem is listed as FILE:LINE:COLUMN.",
+                             "exit status: 0 valid, 2 not.");
+  app->add_option("config", config_path, "the run's config")->type_name("CONFIG");
+  return app;
+}
+
+}  // namespace
+
+std::string InitUsage() {
+  InitOptions ignored;
+  return InitCommandLine(ignored)->help();
+}
+
+std::string ValidateUsage() {
+  std::string ignored;
+  return ValidateCommandLine(ignored)->help();
+}
+
+int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  InitOptions o;
+  if (const auto exit_code = ParseCommandLine(*InitCommandLine(o), args, out, err)) {
+    return *exit_code;
   }
+  const std::vector<std::string>& patterns = o.patterns;
   if (patterns.empty()) {
     err << "plateau init: no probe files given (see plateau init --help)\n";
     return 2;
@@ -303,25 +314,29 @@ int RunInitCommand(const std::vector<std::string>& args, std::ostream& out, std:
     err << "\n";
     return 2;
   }
-  WriteConfig(catalog, patterns, relative, confidence, out);
+  WriteConfig(catalog, patterns, o.relative, o.confidence, out);
   return 0;
 }
 
 int RunValidateCommand(const std::vector<std::string>& args, std::ostream& out,
                        std::ostream& err) {
-  if (args.size() != 1 || args[0] == "--help" || args[0] == "-h") {
-    (args.size() == 1 ? out : err) << ValidateUsage();
-    return args.size() == 1 ? 0 : 2;
+  std::string config_path;
+  if (const auto exit_code = ParseCommandLine(*ValidateCommandLine(config_path), args, out, err)) {
+    return *exit_code;
+  }
+  if (config_path.empty()) {
+    err << "plateau validate: no config file given (see plateau validate --help)\n";
+    return 2;
   }
   std::vector<ConfigError> errors;
-  const std::optional<RunConfig> config = LoadRunConfig(args[0], &errors);
+  const std::optional<RunConfig> config = LoadRunConfig(config_path, &errors);
   if (!config) {
     for (const ConfigError& e : errors) err << e.ToString() << "\n";
-    err << args[0] << ": " << errors.size() << (errors.size() == 1 ? " problem" : " problems")
+    err << config_path << ": " << errors.size() << (errors.size() == 1 ? " problem" : " problems")
         << "\n";
     return 2;
   }
-  out << args[0] << ": valid: run '" << config->run_name << "', " << config->sources.size()
+  out << config_path << ": valid: run '" << config->run_name << "', " << config->sources.size()
       << (config->sources.size() == 1 ? " source, " : " sources, ")
       << config->statistics.size() << " statistics, store " << config->store_path << "\n";
   for (const SourceConfig& s : config->sources) {

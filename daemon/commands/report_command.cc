@@ -6,6 +6,7 @@
 #include <map>
 #include <memory>
 
+#include "daemon/commands/command_line.h"
 #include "daemon/presentation/number_format.h"
 #include "daemon/presentation/json_document.h"
 #include "daemon/commands/run_locator.h"
@@ -182,36 +183,44 @@ std::string CsvNumber(double v) {
   return std::isnan(v) ? "" : PrintfNumber("%.17g", v);
 }
 
+struct ReportOptions {
+  std::string run, html_path, csv_path;
+};
+
+// The command line of report, declared once: the parser and the --help text.
+std::unique_ptr<CLI::App> ReportCommandLine(ReportOptions& o) {
+  auto app = MakeCommandLine("report", R"(Writes one self-contained HTML file (inline SVG; no network, no JavaScript): per statistic the
+running value with its confidence band, the half-width against averaging time on log-log axes with
+the 1/sqrt(T) slope and the target, and the autocorrelation with tau marked; per profile the values
+against y+ with error bars, the reference where given, and the momentum balance.)",
+                             "");
+  app->add_option("run", o.run,
+                  "the run: its config, its store or its folder (default: the current folder)")
+      ->type_name("CONFIG|STORE|FOLDER");
+  app->add_option("--out", o.html_path, "the HTML file (default: plateau-report.html beside the store)")
+      ->type_name("FILE")
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  app->add_option("--csv", o.csv_path, "also write the snapshot history of every statistic and cycle")
+      ->type_name("FILE")
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  return app;
+}
+
 }  // namespace
 
 std::string ReportUsage() {
-  return R"(usage: plateau report [CONFIG|STORE|FOLDER] [--out FILE] [--csv FILE]
-
-Writes one self-contained HTML file (inline SVG; no network, no JavaScript): per statistic the
-running value with its confidence band, the half-width against averaging time on log-log axes with
-the 1/sqrt(T) slope and the target, and the autocorrelation with tau marked; per profile the values
-against y+ with error bars, the reference where given, and the momentum balance. --csv writes the
-snapshot history of every statistic and cycle. Default output: plateau-report.html beside the
-store.
-)";
+  ReportOptions ignored;
+  return ReportCommandLine(ignored)->help();
 }
 
 int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  std::string run, html_path, csv_path;
-  for (std::size_t i = 0; i < args.size(); ++i) {
-    const std::string& a = args[i];
-    if (a == "--help" || a == "-h") {
-      out << ReportUsage();
-      return 0;
-    } else if ((a == "--out" || a == "--csv") && i + 1 < args.size()) {
-      (a == "--out" ? html_path : csv_path) = args[++i];
-    } else if (!a.empty() && a[0] == '-') {
-      err << "plateau report: unknown option " << a << " (see plateau report --help)\n";
-      return 2;
-    } else {
-      run = a;
-    }
+  ReportOptions o;
+  if (const auto exit_code = ParseCommandLine(*ReportCommandLine(o), args, out, err)) {
+    return *exit_code;
   }
+  const std::string& run = o.run;
+  const std::string& csv_path = o.csv_path;
+  std::string html_path = o.html_path;
   const LocatedRun located = LocateRun(run);
   if (located.store_path.empty()) {
     err << "plateau report: " << located.error << "\n";

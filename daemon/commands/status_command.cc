@@ -3,6 +3,7 @@
 #include <memory>
 #include <optional>
 
+#include "daemon/commands/command_line.h"
 #include "daemon/presentation/json_document.h"
 #include "daemon/serving/query_server.h"
 #include "daemon/commands/run_locator.h"
@@ -61,64 +62,55 @@ Reading Read(const std::string& argument) {
   return r;
 }
 
-// Splits [PATH] and the flags a command knows; returns false on anything else.
-bool ParseArgs(const std::vector<std::string>& args, const std::string& command,
-               std::string* path, bool* json, std::string* stat, std::ostream& err) {
-  for (std::size_t i = 0; i < args.size(); ++i) {
-    const std::string& a = args[i];
-    if (a == "--json" && json) {
-      *json = true;
-    } else if (a == "--stat" && stat && i + 1 < args.size()) {
-      *stat = args[++i];
-    } else if (!a.empty() && a[0] == '-') {
-      err << "plateau " << command << ": unknown option " << a << " (see plateau " << command
-          << " --help)\n";
-      return false;
-    } else if (path->empty()) {
-      *path = a;
-    } else {
-      err << "plateau " << command << ": one config, store or folder, please\n";
-      return false;
-    }
-  }
-  return true;
+const char* kRunArgument = "the run: its config, its store or its folder (default: the current folder)";
+
+// The command line of status, declared once: the parser and the --help text.
+std::unique_ptr<CLI::App> StatusCommandLine(std::string& run, bool& json) {
+  auto app = MakeCommandLine("status", R"(Every statistic as the daemon last evaluated it: value ± half-width, relative half-width against
+its target, tau, n_eff, warm-up cut, state and when its target was met. Asks the running daemon on
+its query socket, or reads the store when no daemon answers, so it works after the daemon stopped
+too (and then says how old the numbers are). Without an argument it looks in the current folder
+for plateau.db or a single config.)",
+                             "");
+  app->add_option("run", run, kRunArgument)->type_name("CONFIG|STORE|FOLDER");
+  app->add_flag("--json", json, "one JSON object instead of the table");
+  return app;
+}
+
+// The command line of check, declared once: the parser and the --help text.
+std::unique_ptr<CLI::App> CheckCommandLine(std::string& run, std::string& stat) {
+  auto app = MakeCommandLine("check", R"(Stop or continue, as an exit status, with one line on stderr saying why:
+  0  every target is met: stop the solver
+  1  not yet: continue
+  2  cannot tell (no store, no evaluation yet, unreadable config, a statistic whose column is
+     missing))",
+                             "  until plateau check run.yaml; do sleep 600; done");
+  app->add_option("run", run, kRunArgument)->type_name("CONFIG|STORE|FOLDER");
+  app->add_option("--stat", stat, "the answer for this statistic only")
+      ->type_name("NAME")
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  return app;
 }
 
 }  // namespace
 
 std::string StatusUsage() {
-  return R"(usage: plateau status [CONFIG|STORE|FOLDER] [--json]
-
-Every statistic as the daemon last evaluated it: value ± half-width, relative half-width against
-its target, tau, n_eff, warm-up cut, state and when its target was met. Asks the running daemon on
-its query socket, or reads the store when no daemon answers, so it works after the daemon stopped
-too (and then says how old the numbers are). Without an argument it looks in the current folder
-for plateau.db or a single config.
-)";
+  std::string run;
+  bool json = false;
+  return StatusCommandLine(run, json)->help();
 }
 
 std::string CheckUsage() {
-  return R"(usage: plateau check [CONFIG|STORE|FOLDER] [--stat NAME]
-
-Stop or continue, as an exit status, with one line on stderr saying why:
-  0  every target is met: stop the solver
-  1  not yet: continue
-  2  cannot tell (no store, no evaluation yet, unreadable config, a statistic whose column is
-     missing)
-With --stat, the answer for one statistic only.
-
-  until plateau check run.yaml; do sleep 600; done
-)";
+  std::string run, stat;
+  return CheckCommandLine(run, stat)->help();
 }
 
 int RunStatusCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
-    out << StatusUsage();
-    return 0;
-  }
   std::string path;
   bool json = false;
-  if (!ParseArgs(args, "status", &path, &json, nullptr, err)) return 2;
+  if (const auto exit_code = ParseCommandLine(*StatusCommandLine(path, json), args, out, err)) {
+    return *exit_code;
+  }
   const Reading r = Read(path);
   if (!r.view) {
     err << "plateau status: " << r.error << "\n";
@@ -133,13 +125,11 @@ int RunStatusCommand(const std::vector<std::string>& args, std::ostream& out, st
 }
 
 int RunCheckCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
-  if (!args.empty() && (args[0] == "--help" || args[0] == "-h")) {
-    out << CheckUsage();
-    return 0;
-  }
   std::string path;
   std::string stat;
-  if (!ParseArgs(args, "check", &path, nullptr, &stat, err)) return 2;
+  if (const auto exit_code = ParseCommandLine(*CheckCommandLine(path, stat), args, out, err)) {
+    return *exit_code;
+  }
   const Reading r = Read(path);
   if (!r.view) {
     err << "plateau check: cannot tell: " << r.error << "\n";

@@ -1,10 +1,9 @@
 #include "daemon/commands/watch_command.h"
 
-#include <charconv>
-#include <cmath>
 #include <optional>
 
 #include "config/config_loader.h"
+#include "daemon/commands/command_line.h"
 #include "daemon/runtime/run_logger.h"
 #include "daemon/monitoring/run_monitor.h"
 #include "daemon/runtime/store_lock.h"
@@ -13,67 +12,53 @@
 namespace plateau {
 namespace {
 
-std::optional<double> PositiveSeconds(const std::string& text) {
-  double value = 0.0;
-  const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
-  if (ec != std::errc() || ptr != text.data() + text.size() || !(value > 0.0) ||
-      !std::isfinite(value)) {
-    return std::nullopt;
-  }
-  return value;
+struct WatchOptions {
+  std::string config_path;
+  std::optional<double> evaluate_every;
+  std::optional<double> poll_every;
+  bool quiet = false;
+};
+
+// The command line of watch, declared once: the parser and the --help text.
+std::unique_ptr<CLI::App> WatchCommandLine(WatchOptions& o) {
+  auto app = MakeCommandLine("watch", R"(Follows the probe files the config names while the solver writes them, evaluates every statistic
+against its target at each interval, and records snapshots, events and a checkpoint in the run's
+SQLite store. Runs until SIGINT or SIGTERM, which write a final checkpoint. Restarted after a
+crash (even kill -9), it resumes from the last checkpoint: nothing is counted twice or lost.)",
+                             R"(exit status: 0 after a clean stop; 2 when it cannot start; 3 when its store was deleted or moved
+while it ran (the reason is on stderr either way).)");
+  app->add_option("config", o.config_path, "the run's config")->type_name("CONFIG");
+  const auto seconds = [&](const char* name, std::optional<double>& value, const char* what) {
+    app->add_option_function<double>(name, [&value](double v) { value = v; }, what)
+        ->check(ValueCheck(
+            [](const std::string& v) {
+              const auto s = FiniteNumber(v);
+              return s && *s > 0.0;
+            },
+            "takes a number of seconds above 0"))
+        ->type_name("SECONDS")
+        ->multi_option_policy(CLI::MultiOptionPolicy::TakeLast);
+  };
+  seconds("--evaluate-every", o.evaluate_every, "evaluation interval (overrides evaluate_every)");
+  seconds("--poll-every", o.poll_every, "file polling interval (overrides poll_every)");
+  app->add_flag("--quiet", o.quiet, "log to the run's log file only, not to stderr");
+  return app;
 }
 
 }  // namespace
 
 std::string WatchUsage() {
-  return R"(usage: plateau watch CONFIG [options]
-
-Follows the probe files the config names while the solver writes them, evaluates every statistic
-against its target at each interval, and records snapshots, events and a checkpoint in the run's
-SQLite store. Runs until SIGINT or SIGTERM, which write a final checkpoint. Restarted after a
-crash (even kill -9), it resumes from the last checkpoint: nothing is counted twice or lost.
-
-options:
-  --evaluate-every SECONDS   evaluation interval (overrides evaluate_every)
-  --poll-every SECONDS       file polling interval (overrides poll_every)
-  --quiet                    log to the run's log file only, not to stderr
-
-exit status: 0 after a clean stop; 2 when it cannot start; 3 when its store was deleted or moved
-while it ran (the reason is on stderr either way).
-)";
+  WatchOptions ignored;
+  return WatchCommandLine(ignored)->help();
 }
 
 int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
   InstallEarlyStopHandler();
-  std::string config_path;
-  std::optional<double> evaluate_every;
-  std::optional<double> poll_every;
-  bool quiet = false;
-  for (std::size_t i = 0; i < args.size(); ++i) {
-    const std::string& a = args[i];
-    if (a == "--help" || a == "-h") {
-      out << WatchUsage();
-      return 0;
-    } else if (a == "--quiet") {
-      quiet = true;
-    } else if (a == "--evaluate-every" || a == "--poll-every") {
-      const auto v = i + 1 < args.size() ? PositiveSeconds(args[++i]) : std::nullopt;
-      if (!v) {
-        err << "plateau watch: " << a << " takes a number of seconds above 0\n";
-        return 2;
-      }
-      (a == "--evaluate-every" ? evaluate_every : poll_every) = v;
-    } else if (!a.empty() && a[0] == '-') {
-      err << "plateau watch: unknown option " << a << " (see plateau watch --help)\n";
-      return 2;
-    } else if (config_path.empty()) {
-      config_path = a;
-    } else {
-      err << "plateau watch: one config file, please (got " << config_path << " and " << a
-          << ")\n";
-      return 2;
-    }
+  WatchOptions o;
+  if (const auto exit_code = ParseCommandLine(*WatchCommandLine(o), args, out, err)) {
+    return *exit_code;
   }
+  const std::string& config_path = o.config_path;
   if (config_path.empty()) {
     err << "plateau watch: no config file given (see plateau watch --help)\n";
     return 2;
@@ -99,15 +84,15 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
     err << "plateau watch: " << status.message() << "\n";
     return 2;
   }
-  const auto log = MakeRunLogger(config->run_folder, config->run_name, quiet, config->alerts.syslog);
+  const auto log = MakeRunLogger(config->run_folder, config->run_name, o.quiet, config->alerts.syslog);
   log->info("watching run '{}': {} sources, {} statistics; store {}; polling every {} s, "
             "evaluating every {} s",
             config->run_name, config->sources.size(), config->statistics.size(),
-            config->store_path, poll_every.value_or(config->poll_every),
-            evaluate_every.value_or(config->evaluate_every));
+            config->store_path, o.poll_every.value_or(config->poll_every),
+            o.evaluate_every.value_or(config->evaluate_every));
   RunMonitor monitor(std::move(*config), std::move(store), log);
   monitor.Restore();
-  WatchLoop loop(monitor, poll_every, evaluate_every, log);
+  WatchLoop loop(monitor, o.poll_every, o.evaluate_every, log);
   const int code = loop.Run();
   // The log file may have gone with the run folder: say why on stderr too.
   if (!loop.stop_reason().empty()) err << "plateau watch: " << loop.stop_reason() << "\n";

@@ -70,76 +70,42 @@ std::string Unhex(const std::string& hex) {
   return bytes;
 }
 
-std::string Joined(const std::vector<std::string>& names) {
-  std::string out;
-  for (const std::string& n : names) out += (out.empty() ? "" : ", ") + n;
-  return out;
-}
-
 }  // namespace
 
-// Routes one file's parser output into the source: names, rows through the time gate, bad lines
-// into the log (the first few one by one).
-class SourceTail::FileSink : public RowSink {
+// What the series sink meets while one file is read, into the run's log (the first few bad lines
+// of a file one by one).
+class SourceTail::ReadOwner : public SeriesSinkOwner {
  public:
-  FileSink(SourceTail& tail, TrackedFile& file, double wall_time)
-      : tail_(tail), file_(file), wall_time_(wall_time) {}
+  ReadOwner(SourceTail& tail, TrackedFile& file) : tail_(tail), file_(file) {}
 
-  void OnColumns(const std::vector<std::string>& header) override {
-    std::vector<std::string> names = header;
-    const std::vector<std::string>& wanted = tail_.config_.columns;
-    if (!wanted.empty()) {
-      if (wanted.size() != header.size()) {
-        tail_.log_->error("{}: has {} columns but source '{}' names {}; the file is ignored",
-                          file_.path, header.size(), tail_.config_.name, wanted.size());
-        file_.layout_mismatch = true;
-        return;
-      }
-      names = wanted;
-    }
-    // Probe locations are known for files whose header was read in this process; a restored
-    // source has none to compare with (they are behind the checkpoint's offsets).
-    const std::vector<ProbeLocation>& probes = file_.parser.probes();
-    const bool moved = !tail_.layout_probes_.empty() && !SameProbes(probes, tail_.layout_probes_);
-    if (!tail_.source_) {
-      tail_.StartSource(names, file_.path);
-      tail_.layout_probes_ = probes;
-    } else if (names != tail_.source_->columns() || moved) {
-      // A restart segment with another header (a probe added or moved): never merged column by
-      // column with the segments before it.
-      tail_.log_->error(
-          "source '{}': the header of {} differs from that of {} ({} columns: {}; against {}: {}{}); "
-          "a probe added or moved at a restart? The file is ignored: give it a source of its own",
-          tail_.config_.name, file_.path, tail_.layout_file_, names.size(), Joined(names),
-          tail_.source_->columns().size(), Joined(tail_.source_->columns()),
-          moved ? "; the same names at other probe locations" : "");
-      file_.layout_mismatch = true;
-    }
+  void StartSeries(const std::vector<std::string>& names, const std::string& path) override {
+    tail_.StartSource(names, path);
   }
 
-  void OnRow(std::uint64_t, const double* values) override {
-    if (file_.layout_mismatch || !tail_.source_) return;
-    const double time = values[tail_.source_->time_index()];
-    if (std::isnan(file_.first_time)) file_.first_time = time;
-    file_.last_time = time;
-    if (tail_.source_->Add(values)) {
-      tail_.last_sample_wall_time_ = wall_time_;
-      if (tail_.source_->gate().skipped() > tail_.overlap_reported_) tail_.ReportOverlap();
-    }
+  void RefuseSegment(const std::string&, const std::string& reason) override {
+    tail_.log_->error("source '{}': {}; the file is ignored: give it a source of its own",
+                      tail_.config_.name, reason);
   }
 
-  void OnBadLine(std::uint64_t line, std::string_view reason) override {
+  void ReportOverlap(const TimeOrderGate::Overlap& o, const std::string&) override {
+    tail_.log_->info("source '{}': skipped {} samples with times {} to {}, already recorded "
+                     "before a restart",
+                     tail_.config_.name, o.samples, FormatValue(o.first_time),
+                     FormatValue(o.last_time));
+  }
+
+  void ReportBadLine(const std::string& path, std::uint64_t line,
+                     std::string_view reason) override {
     if (file_.bad_lines_logged < kBadLinesLoggedPerFile) {
       ++file_.bad_lines_logged;
       file_.bad_lines_reported = file_.parser.bad_lines();
-      tail_.log_->warn("{}:{}: {}; line skipped", file_.path, line, reason);
+      tail_.log_->warn("{}:{}: {}; line skipped", path, line, reason);
     }
   }
 
  private:
   SourceTail& tail_;
   TrackedFile& file_;
-  double wall_time_;
 };
 
 SourceTail::SourceTail(SourceConfig config, std::vector<StatisticRequest> requests,
@@ -152,53 +118,43 @@ SourceTail::SourceTail(SourceConfig config, std::vector<StatisticRequest> reques
 void SourceTail::StartSource(const std::vector<std::string>& columns,
                              const std::string& from_file) {
   std::string error;
-  source_ = SourceStatistics::Make(columns, config_.time_column, requests_, blocks_, &error);
-  if (!source_) {
+  series_.source = SourceStatistics::Make(columns, config_.time_column, requests_, blocks_, &error);
+  if (!series_.source) {
     log_->error("source '{}' ({}): {}; nothing of it can be estimated until the config is fixed",
                 config_.name, from_file, error);
     return;
   }
-  layout_file_ = from_file;
-  source_->SetWeighting(config_.weighting);
-  if (!source_->SetScales(config_.scales, &error)) {
+  series_.source->SetWeighting(config_.weighting);
+  if (!series_.source->SetScales(config_.scales, &error)) {
     log_->error("source '{}' ({}): {}; the columns are {}; no factor is applied until the config "
                 "is fixed",
-                config_.name, from_file, error, Joined(columns));
+                config_.name, from_file, error, JoinedNames(columns));
   }
-  for (const SourceStatistics::Problem& p : source_->problems()) {
+  for (const SourceStatistics::Problem& p : series_.source->problems()) {
     log_->error("statistic '{}' of source '{}': {}", requests_[p.request].name, config_.name,
                 p.message);
   }
 }
 
-void SourceTail::ReportOverlap() {
-  const TimeOrderGate::Overlap o = source_->gate().TakeFinishedOverlap();
-  overlap_reported_ = source_->gate().skipped();
-  if (o.samples == 0) return;
-  log_->info("source '{}': skipped {} samples with times {} to {}, already recorded before a "
-             "restart",
-             config_.name, o.samples, FormatValue(o.first_time), FormatValue(o.last_time));
-}
-
 std::string SourceTail::ProblemOf(const std::string& statistic_name) const {
-  if (!source_) return "";
-  for (const SourceStatistics::Problem& p : source_->problems()) {
+  if (!series_.source) return "";
+  for (const SourceStatistics::Problem& p : series_.source->problems()) {
     if (requests_[p.request].name == statistic_name) return p.message;
   }
   return "";
 }
 
 const Statistic* SourceTail::Find(const std::string& statistic_name) const {
-  if (!source_) return nullptr;
-  for (const Statistic& s : source_->statistics()) {
+  if (!series_.source) return nullptr;
+  for (const Statistic& s : series_.source->statistics()) {
     if (s.name() == statistic_name) return &s;
   }
   return nullptr;
 }
 
 double SourceTail::last_sample_time() const {
-  if (!source_) return std::numeric_limits<double>::quiet_NaN();
-  const double t = source_->gate().last_time();
+  if (!series_.source) return std::numeric_limits<double>::quiet_NaN();
+  const double t = series_.source->gate().last_time();
   return std::isinf(t) ? std::numeric_limits<double>::quiet_NaN() : t;
 }
 
@@ -206,8 +162,8 @@ void SourceTail::ShiftWallClock(double seconds) { last_sample_wall_time_ += seco
 
 std::uint64_t SourceTail::admitted_samples() const {
   std::uint64_t samples = 0;
-  if (!source_) return samples;
-  for (const Statistic& statistic : source_->statistics()) {
+  if (!series_.source) return samples;
+  for (const Statistic& statistic : series_.source->statistics()) {
     samples = std::max<std::uint64_t>(samples, statistic.history().sample_count());
   }
   return samples;
@@ -268,7 +224,7 @@ bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
     file.inode = inode;
     file.parser = ParserFor(file.path);
     file.vanished = false;
-    file.layout_mismatch = false;
+    file.rows.refused = false;
     file.bad_lines_logged = 0;
     file.bad_lines_reported = 0;
     file.signature.clear();
@@ -278,13 +234,15 @@ bool SourceTail::CheckIdentity(TrackedFile& file, std::uint64_t* size) {
 
 bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
   std::uint64_t size = 0;
-  if (!CheckIdentity(file, &size) || file.layout_mismatch) return false;
+  if (!CheckIdentity(file, &size) || file.rows.refused) return false;
   const std::uint64_t from = file.parser.consumed_bytes() + file.parser.pending_bytes();
   if (size <= from) return false;
-  FileSink sink(*this, file, wall_time);
+  ReadOwner owner(*this, file);
+  SeriesSink sink(series_, file.rows, file.path, file.parser, config_.columns, owner);
+  const std::uint64_t recorded_before = file.rows.rows - file.rows.overlap_rows;
   const std::uint64_t start = file.parser.consumed_bytes();
   const FileReadResult read = ReadProbeFile(file.path, from, file.parser, sink, [&] {
-    return file.parser.consumed_bytes() - start < kBytesPerPoll && !file.layout_mismatch;
+    return file.parser.consumed_bytes() - start < kBytesPerPoll && !file.rows.refused;
   });
   if (!read.ok) {
     // Once per spell, not once per poll: a file unreadable for a day must not fill the log.
@@ -301,6 +259,7 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
     log_->info("{} can be read again; reading on from byte {}", file.path, from);
     file.unreadable = false;
   }
+  if (file.rows.rows - file.rows.overlap_rows > recorded_before) last_sample_wall_time_ = wall_time;
   file.signature = SignatureAt(file.path, file.parser.consumed_bytes()).value_or("");
   const std::uint64_t unreported = file.parser.bad_lines() - file.bad_lines_reported;
   if (unreported > 0 && file.bad_lines_logged >= kBadLinesLoggedPerFile) {
@@ -322,14 +281,14 @@ bool SourceTail::Poll(double wall_time) {
   // Only files never read: a file read so far without a row stays last until its rows come.
   for (TrackedFile& f : files_) {
     const bool never_read = f.parser.consumed_bytes() == 0 && f.parser.pending_bytes() == 0;
-    if (std::isnan(f.first_time) && never_read && !f.vanished) {
+    if (std::isnan(f.rows.first_time) && never_read && !f.vanished) {
       const double t = FirstDataTime(f.path, config_.time_column);
-      if (!std::isinf(t)) f.first_time = t;
+      if (!std::isinf(t)) f.rows.first_time = t;
     }
   }
   std::stable_sort(order.begin(), order.end(), [](const TrackedFile* a, const TrackedFile* b) {
-    const double ta = std::isnan(a->first_time) ? INFINITY : a->first_time;
-    const double tb = std::isnan(b->first_time) ? INFINITY : b->first_time;
+    const double ta = std::isnan(a->rows.first_time) ? INFINITY : a->rows.first_time;
+    const double tb = std::isnan(b->rows.first_time) ? INFINITY : b->rows.first_time;
     return ta < tb;
   });
   bool more = false;
@@ -350,8 +309,8 @@ void SourceTail::Checkpoint(CycleRecord& record) {
     p.lines = has_layout ? static_cast<std::int64_t>(f.parser.lines()) : 0;
     p.rows = static_cast<std::int64_t>(f.parser.rows());
     p.bad_lines = has_layout ? static_cast<std::int64_t>(f.parser.bad_lines()) : 0;
-    p.first_time = f.first_time;
-    p.last_time = f.last_time;
+    p.first_time = f.rows.first_time;
+    p.last_time = f.rows.last_time;
     if (has_layout) {
       p.columns = f.parser.column_names();
       p.signature = Hex(f.signature);
@@ -359,11 +318,11 @@ void SourceTail::Checkpoint(CycleRecord& record) {
     p.vanished = f.vanished;
     record.files.push_back(std::move(p));
   }
-  if (!source_) return;
-  record.checkpoint["gate:" + config_.name] = {source_->gate().last_time(),
-                                               static_cast<double>(source_->gate().skipped())};
-  record.checkpoint["weighting:" + config_.name] = source_->SaveWeightingState();
-  for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
+  if (!series_.source) return;
+  record.checkpoint["gate:" + config_.name] = {series_.source->gate().last_time(),
+                                               static_cast<double>(series_.source->gate().skipped())};
+  record.checkpoint["weighting:" + config_.name] = series_.source->SaveWeightingState();
+  for (const SourceStatistics::KeyedHistory& h : series_.source->histories()) {
     record.checkpoint["history:" + config_.name + "/" + h.key] = h.history->SaveState();
   }
 }
@@ -371,21 +330,21 @@ void SourceTail::Checkpoint(CycleRecord& record) {
 void SourceTail::RestoreWeighting(const StoredCheckpoint& checkpoint) {
   const auto weighting = checkpoint.items.find("weighting:" + config_.name);
   if (weighting == checkpoint.items.end() ||
-      !source_->RestoreWeightingState(weighting->second)) {
+      !series_.source->RestoreWeightingState(weighting->second)) {
     // Saved by a plateau before time weighting: its estimates counted every sample once.
-    source_->SetWeighting(Weighting::kSamples);
+    series_.source->SetWeighting(Weighting::kSamples);
     log_->warn("source '{}': no usable weighting state in the checkpoint (saved by an older "
                "plateau?); samples count once each, as its estimates did; time weighting needs a "
                "fresh store",
                config_.name);
     return;
   }
-  if (source_->spacing().requested() != config_.weighting) {
+  if (series_.source->spacing().requested() != config_.weighting) {
     log_->warn("source '{}': the config asks for weighting {}, the store's estimates were made "
                "with {}; they go on with {} (a fresh store applies the new one)",
                config_.name, WeightingName(config_.weighting),
-               WeightingName(source_->spacing().requested()),
-               WeightingName(source_->spacing().requested()));
+               WeightingName(series_.source->spacing().requested()),
+               WeightingName(series_.source->spacing().requested()));
   }
 }
 
@@ -395,26 +354,27 @@ void SourceTail::Restore(const StoredCheckpoint& checkpoint) {
     TrackedFile file;
     file.path = p.path;
     file.inode = p.inode;
-    file.first_time = p.first_time;
-    file.last_time = p.last_time;
+    file.rows.first_time = p.first_time;
+    file.rows.last_time = p.last_time;
     file.vanished = p.vanished;
     file.parser.Resume(p.columns, p.lines, p.offset, p.rows, p.bad_lines);
     file.bad_lines_reported = static_cast<std::uint64_t>(p.bad_lines);
     file.signature = Unhex(p.signature);
-    if (!p.columns.empty() && !source_) {
+    if (!p.columns.empty() && !series_.source) {
       const std::vector<std::string>& names = config_.columns.empty() ? p.columns : config_.columns;
+      series_.layout_file = p.path;
       StartSource(names, p.path);
     }
     files_.push_back(std::move(file));
   }
-  if (!source_) return;
+  if (!series_.source) return;
   RestoreWeighting(checkpoint);
   const auto gate = checkpoint.items.find("gate:" + config_.name);
   if (gate != checkpoint.items.end() && gate->second.size() == 2) {
-    source_->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
-    overlap_reported_ = source_->gate().skipped();
+    series_.source->gate().Resume(gate->second[0], static_cast<std::uint64_t>(gate->second[1]));
+    series_.overlap_reported = series_.source->gate().skipped();
   }
-  for (const SourceStatistics::KeyedHistory& h : source_->histories()) {
+  for (const SourceStatistics::KeyedHistory& h : series_.source->histories()) {
     const auto state = checkpoint.items.find("history:" + config_.name + "/" + h.key);
     if (state == checkpoint.items.end() || !h.history->RestoreState(state->second)) {
       log_->warn("source '{}', history {}: no usable state in the checkpoint; it starts empty",

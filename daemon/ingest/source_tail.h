@@ -18,6 +18,7 @@
 #include "config/run_config.h"
 #include "core/row_parser.h"
 #include "core/source_statistics.h"
+#include "daemon/ingest/series_sink.h"
 #include "store/run_store.h"
 
 namespace plateau {
@@ -39,7 +40,7 @@ class SourceTail {
 
   const SourceConfig& config() const { return config_; }
   // nullptr until a file of the source has shown its columns.
-  const SourceStatistics* statistics() const { return source_ ? &*source_ : nullptr; }
+  const SourceStatistics* statistics() const { return series_.source ? &*series_.source : nullptr; }
   // Rows admitted so far (after the restart-overlap gate): every statistic of the source sees
   // each, and its count is checkpointed.
   std::uint64_t admitted_samples() const;
@@ -47,7 +48,7 @@ class SourceTail {
   std::string ProblemOf(const std::string& statistic_name) const;
   const Statistic* Find(const std::string& statistic_name) const;
   // The source's weighting and time spacing; nullptr until its first file gave its columns.
-  const SourceStatistics* source() const { return source_ ? &*source_ : nullptr; }
+  const SourceStatistics* source() const { return series_.source ? &*series_.source : nullptr; }
   double last_sample_time() const;
   double last_sample_wall_time() const { return last_sample_wall_time_; }
   // The system clock jumped by `seconds`: wall times held here move with it, so that durations
@@ -71,34 +72,28 @@ class SourceTail {
     std::string path;
     std::int64_t inode = 0;
     RowParser parser;
-    double first_time = std::numeric_limits<double>::quiet_NaN();
-    double last_time = std::numeric_limits<double>::quiet_NaN();
+    SegmentRows rows;  // its times and counts; `rows.refused`: its header does not fit the source
     bool vanished = false;
     bool unreadable = false;       // the last read failed (permissions, I/O error); logged once
-    bool layout_mismatch = false;  // columns differ from the source's: the file is ignored
     std::uint64_t bad_lines_logged = 0;
     std::uint64_t bad_lines_reported = 0;
     std::string signature;  // the bytes before the consumed offset, as last read
   };
-  class FileSink;
+  class ReadOwner;
 
   void DiscoverFiles();
   // Returns true when the file has more bytes waiting after this slice.
   bool ReadFile(TrackedFile& file, double wall_time);
   bool CheckIdentity(TrackedFile& file, std::uint64_t* size);
   void StartSource(const std::vector<std::string>& columns, const std::string& from_file);
-  void ReportOverlap();
 
   SourceConfig config_;
   std::vector<StatisticRequest> requests_;
   std::size_t blocks_;
   std::shared_ptr<spdlog::logger> log_;
-  std::optional<SourceStatistics> source_;
+  SeriesIngest series_;
   std::vector<TrackedFile> files_;
   double last_sample_wall_time_ = std::numeric_limits<double>::quiet_NaN();
-  std::uint64_t overlap_reported_ = 0;
-  std::string layout_file_;  // the file whose header set the source's columns
-  std::vector<ProbeLocation> layout_probes_;  // its probe locations, when read in this process
 };
 
 }  // namespace plateau
