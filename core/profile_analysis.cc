@@ -50,8 +50,7 @@ double Interpolate(const std::vector<std::pair<double, double>>& table, double x
   return lower->second + f * (upper->second - lower->second);
 }
 
-std::vector<std::pair<double, double>> ReadProfileTable(const std::string& text,
-                                                         std::string* error) {
+Result<std::vector<std::pair<double, double>>> ReadProfileTable(const std::string& text) {
   std::vector<std::pair<double, double>> rows;
   std::istringstream lines(text);
   std::string line;
@@ -63,13 +62,13 @@ std::vector<std::pair<double, double>> ReadProfileTable(const std::string& text,
     std::istringstream fields(line);
     double x, v;
     if (!(fields >> x >> v)) {
-      *error = "line " + std::to_string(number) + ": expected two numbers, x and value";
-      return {};
+      return Status::Error("line " + std::to_string(number) +
+                           ": expected two numbers, x and value");
     }
     rows.emplace_back(x, v);
   }
   std::sort(rows.begin(), rows.end());
-  if (rows.empty()) *error = "no rows";
+  if (rows.empty()) return Status::Error("no rows");
   return rows;
 }
 

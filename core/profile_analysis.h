@@ -7,6 +7,8 @@
 #include <utility>
 #include <vector>
 
+#include "core/result.h"
+
 namespace plateau {
 
 // y+ = y u_tau / nu.
@@ -31,9 +33,8 @@ std::vector<double> TotalStressDeparture(const std::vector<double>& y, const std
 double Interpolate(const std::vector<std::pair<double, double>>& table, double x);
 
 // A two-column text table (x value per line, '#' comments), e.g. a published profile in wall
-// units. Empty with *error set when the file cannot be read or has no rows.
-std::vector<std::pair<double, double>> ReadProfileTable(const std::string& text,
-                                                         std::string* error);
+// units, sorted by x; an error when a line is not two numbers or there are no rows.
+Result<std::vector<std::pair<double, double>>> ReadProfileTable(const std::string& text);
 
 }  // namespace plateau
 

@@ -31,13 +31,14 @@ int ResolveColumn(const std::vector<std::string>& columns, const std::string& co
 SourceStatistics::SourceStatistics(std::vector<std::string> columns, int time_index)
     : columns_(std::move(columns)), time_index_(time_index), scales_(columns_.size(), 1.0) {}
 
-std::optional<SourceStatistics> SourceStatistics::Make(
-    std::vector<std::string> columns, const std::string& time_column,
-    const std::vector<StatisticRequest>& requests, std::size_t capacity, std::string* error) {
+Result<SourceStatistics> SourceStatistics::Make(std::vector<std::string> columns,
+                                                const std::string& time_column,
+                                                const std::vector<StatisticRequest>& requests,
+                                                std::size_t capacity) {
   const int time_index = time_column.empty() ? 0 : ResolveColumn(columns, time_column);
   if (time_index < 0 || columns.empty()) {
-    *error = "no time column '" + time_column + "' (columns: " + KnownColumns(columns) + ")";
-    return std::nullopt;
+    return Status::Error("no time column '" + time_column + "' (columns: " +
+                         KnownColumns(columns) + ")");
   }
   SourceStatistics source(std::move(columns), time_index);
   // The order each shared history must keep: the highest any of its statistics needs.
@@ -127,18 +128,17 @@ std::vector<StatisticRequest> SourceStatistics::MeansOfEveryColumn(
   return requests;
 }
 
-bool SourceStatistics::SetScales(const std::vector<ColumnScale>& scales, std::string* error) {
+Status SourceStatistics::SetScales(const std::vector<ColumnScale>& scales) {
   std::vector<double> factors(columns_.size(), 1.0);
   for (const ColumnScale& s : scales) {
     const int index = ResolveColumn(columns_, s.column);
     if (index < 0) {
-      *error = "scale names column '" + s.column + "', which the files do not have";
-      return false;
+      return Status::Error("scale names column '" + s.column + "', which the files do not have");
     }
     factors[index] = s.factor;
   }
   scales_ = std::move(factors);
-  return true;
+  return Status::Ok();
 }
 
 bool SourceStatistics::SetWeighting(Weighting weighting) {

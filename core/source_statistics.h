@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "core/result.h"
 #include "core/sample_spacing.h"
 #include "core/statistic.h"
 #include "core/statistic_request.h"
@@ -19,13 +20,13 @@ namespace plateau {
 class SourceStatistics {
  public:
   // Resolves `time_column` (a column name, or a 1-based column number; empty means the first
-  // column) and every request's columns against `columns`. An unknown time column returns nullopt
-  // with *error set. A request with an unknown column or a wrong column count gets no statistic: its
+  // column) and every request's columns against `columns`. An unknown time column is an error.
+  // A request with an unknown column or a wrong column count gets no statistic: its
   // message (naming the column and listing the known ones) is in problems(), by request index.
-  static std::optional<SourceStatistics> Make(std::vector<std::string> columns,
-                                              const std::string& time_column,
-                                              const std::vector<StatisticRequest>& requests,
-                                              std::size_t capacity, std::string* error);
+  static Result<SourceStatistics> Make(std::vector<std::string> columns,
+                                       const std::string& time_column,
+                                       const std::vector<StatisticRequest>& requests,
+                                       std::size_t capacity);
 
   struct Problem {
     std::size_t request;
@@ -38,13 +39,13 @@ class SourceStatistics {
                                                           const std::string& time_column);
 
   // A factor applied to a column before any statistic sees it: -1 for a solver's sign convention,
-  // a density to turn a kinematic value into pascals. Columns by name or 1-based number; false
-  // with *error for an unknown column (the scales set before stay).
+  // a density to turn a kinematic value into pascals. Columns by name or 1-based number; an
+  // unknown column is an error (the scales set before stay).
   struct ColumnScale {
     std::string column;
     double factor = 1.0;
   };
-  bool SetScales(const std::vector<ColumnScale>& scales, std::string* error);
+  Status SetScales(const std::vector<ColumnScale>& scales);
 
   // How samples are weighted (SampleSpacing); before the first row only, else false.
   bool SetWeighting(Weighting weighting);

@@ -58,38 +58,38 @@ std::string PageKey(const std::string& item, std::size_t page) {
 
 }  // namespace
 
-std::unique_ptr<RunStore> RunStore::OpenForWriting(const std::string& path,
-                                                   const std::string& run_name, Status* status) {
-  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadWrite, status);
-  if (!connection) return nullptr;
+Result<std::unique_ptr<RunStore>> RunStore::OpenForWriting(const std::string& path,
+                                                           const std::string& run_name) {
+  Status status;
+  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadWrite, &status);
+  if (!connection) return status;
   // WAL: readers never block the daemon and see only committed cycles. synchronous=NORMAL keeps
   // every committed cycle across a crash of the process; a power cut may lose the last one.
-  *status = connection->Execute("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;");
-  if (!status->ok()) return nullptr;
+  status = connection->Execute("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;");
+  if (!status.ok()) return status;
   std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
   if (const char* fault = std::getenv("PLATEAU_FAULT_KILL_IN_CYCLE")) {
     store->kill_in_cycle_ = std::atoll(fault);
   }
-  *status = store->Migrate(run_name);
-  if (!status->ok()) return nullptr;
+  status = store->Migrate(run_name);
+  if (!status.ok()) return status;
   return store;
 }
 
-std::unique_ptr<RunStore> RunStore::OpenForReading(const std::string& path, Status* status) {
-  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadOnly, status);
-  if (!connection) return nullptr;
+Result<std::unique_ptr<RunStore>> RunStore::OpenForReading(const std::string& path) {
+  Status status;
+  auto connection = SqliteConnection::Open(path, SqliteConnection::Mode::kReadOnly, &status);
+  if (!connection) return status;
   std::unique_ptr<RunStore> store(new RunStore(std::move(connection)));
   int version = 0;
-  *status = ReadSchemaVersion(*store->connection_, &version);
-  if (!status->ok()) return nullptr;
+  status = ReadSchemaVersion(*store->connection_, &version);
+  if (!status.ok()) return status;
   if (version == 0) {
-    *status = Status::Error("store " + path + " is empty: the daemon has not written to it yet");
-    return nullptr;
+    return Status::Error("store " + path + " is empty: the daemon has not written to it yet");
   }
   if (version > kSchemaVersion) {
-    *status = Status::Error("store " + path + " has schema version " + std::to_string(version) +
-                            "; this plateau reads up to " + std::to_string(kSchemaVersion));
-    return nullptr;
+    return Status::Error("store " + path + " has schema version " + std::to_string(version) +
+                         "; this plateau reads up to " + std::to_string(kSchemaVersion));
   }
   return store;
 }
@@ -257,13 +257,14 @@ Status RunStore::WriteCycle(const CycleRecord& r) {
   return written;
 }
 
-std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
+Result<std::vector<FileProgress>> RunStore::ReadFiles() {
   std::vector<FileProgress> files;
+  Status status;
   auto query = connection_->Prepare(
       "SELECT path, source, inode, offset, lines, rows, bad_lines, first_time, last_time, "
       "columns, vanished, signature FROM files ORDER BY rowid",
-      status);
-  if (!query) return files;
+      &status);
+  if (!query) return status;
   while (query->Step()) {
     FileProgress f;
     f.path = query->ColumnText(0);
@@ -280,27 +281,29 @@ std::vector<FileProgress> RunStore::ReadFiles(Status* status) {
     f.signature = query->ColumnText(11);
     files.push_back(std::move(f));
   }
-  *status = query->status();
+  if (!query->status().ok()) return query->status();
   return files;
 }
 
-std::optional<StoredCheckpoint> RunStore::ReadCheckpoint(Status* status) {
+Result<std::optional<StoredCheckpoint>> RunStore::ReadCheckpoint() {
+  Status status;
   auto meta = connection_->Prepare(
       "SELECT (SELECT value FROM meta WHERE key = 'checkpoint_cycle'), "
       "(SELECT value FROM meta WHERE key = 'fingerprint')",
-      status);
-  if (!meta) return std::nullopt;
+      &status);
+  if (!meta) return status;
   if (!meta->Step() || meta->ColumnText(0).empty()) {
-    *status = meta->status();
-    return std::nullopt;
+    if (!meta->status().ok()) return meta->status();
+    return std::optional<StoredCheckpoint>();
   }
   StoredCheckpoint c;
   c.cycle = std::stoll(meta->ColumnText(0));
   c.fingerprint = meta->ColumnText(1);
-  c.files = ReadFiles(status);
-  if (!status->ok()) return std::nullopt;
-  auto items = connection_->Prepare("SELECT item, state FROM checkpoint", status);
-  if (!items) return std::nullopt;
+  Result<std::vector<FileProgress>> files = ReadFiles();
+  if (!files.ok()) return files.status();
+  c.files = std::move(files).value();
+  auto items = connection_->Prepare("SELECT item, state FROM checkpoint", &status);
+  if (!items) return status;
   // Pages of each item by number; an item whose pages are not 0..n-1 is left out (its owner
   // then starts empty and says so), which a transaction-per-cycle store never holds.
   std::map<std::string, std::map<std::size_t, std::vector<double>>> paged;
@@ -313,30 +316,29 @@ std::optional<StoredCheckpoint> RunStore::ReadCheckpoint(Status* status) {
     }
     paged[key.substr(6, hash - 6)][std::stoull(key.substr(hash + 1))] = items->ColumnBlob(1);
   }
-  *status = items->status();
-  if (!status->ok()) return std::nullopt;
+  if (!items->status().ok()) return items->status();
   for (auto& [name, pages] : paged) {
     if (pages.rbegin()->first + 1 != pages.size()) continue;
     std::vector<double>& state = c.items[name];
     for (auto& [k, values] : pages) state.insert(state.end(), values.begin(), values.end());
   }
-  return c;
+  return std::optional<StoredCheckpoint>(std::move(c));
 }
 
-std::optional<LatestView> RunStore::ReadLatest(Status* status) {
+Result<std::optional<LatestView>> RunStore::ReadLatest() {
   // One read transaction: in WAL mode it sees one committed cycle, never half of the next.
-  *status = connection_->Execute("BEGIN");
-  if (!status->ok()) return std::nullopt;
+  Status status = connection_->Execute("BEGIN");
+  if (!status.ok()) return status;
   std::optional<LatestView> view;
   [&] {
     auto cycle = connection_->Prepare(
         "SELECT cycle, wall_time, last_sample_time, last_sample_wall_time, run_met, "
         "(SELECT value FROM meta WHERE key = 'run_name'), remaining_time, remaining_wall "
         "FROM cycles ORDER BY cycle DESC LIMIT 1",
-        status);
+        &status);
     if (!cycle) return;
     if (!cycle->Step()) {
-      *status = cycle->status();
+      status = cycle->status();
       return;
     }
     LatestView v;
@@ -352,7 +354,7 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
                                          ", l.json FROM snapshots s JOIN latest l ON "
                                          "l.position = s.position WHERE s.cycle = ?1 "
                                          "ORDER BY s.position",
-                                     status);
+                                     &status);
     if (!rows) return;
     rows->Bind(1, v.cycle);
     while (rows->Step()) {
@@ -363,11 +365,17 @@ std::optional<LatestView> RunStore::ReadLatest(Status* status) {
       if (row.document.is_discarded()) row.document = nullptr;
       v.statistics.push_back(std::move(row));
     }
-    if (!(*status = rows->status()).ok()) return;
-    v.files = ReadFiles(status);
-    if (status->ok()) view = std::move(v);
+    if (!(status = rows->status()).ok()) return;
+    Result<std::vector<FileProgress>> files = ReadFiles();
+    if (!files.ok()) {
+      status = files.status();
+      return;
+    }
+    v.files = std::move(files).value();
+    view = std::move(v);
   }();
   connection_->Execute("COMMIT");
+  if (!status.ok()) return status;
   return view;
 }
 
@@ -400,42 +408,45 @@ EventRow EventAt(const SqliteStatement& q, int first) {
 
 }  // namespace
 
-std::vector<EventRow> RunStore::ReadEvents(std::int64_t after_id, int limit, Status* status) {
+Result<std::vector<EventRow>> RunStore::ReadEvents(std::int64_t after_id, int limit) {
   std::vector<EventRow> events;
+  Status status;
   auto query = connection_->Prepare(std::string("SELECT ") + kEventColumns +
                                         " FROM events e WHERE e.id > ?1 ORDER BY e.id LIMIT ?2",
-                                    status);
-  if (!query) return events;
+                                    &status);
+  if (!query) return status;
   query->Bind(1, after_id);
   query->Bind(2, static_cast<std::int64_t>(limit));
   while (query->Step()) events.push_back(EventAt(*query, 0));
-  *status = query->status();
+  if (!query->status().ok()) return query->status();
   return events;
 }
 
-std::vector<HistoryRow> RunStore::ReadHistory(Status* status) {
+Result<std::vector<HistoryRow>> RunStore::ReadHistory() {
   std::vector<HistoryRow> history;
+  Status status;
   auto query = connection_->Prepare(std::string("SELECT s.cycle, c.wall_time, ") +
                                         kSnapshotColumns +
                                         " FROM snapshots s JOIN cycles c ON c.cycle = s.cycle "
                                         "ORDER BY s.cycle, s.position",
-                                    status);
-  if (!query) return history;
+                                    &status);
+  if (!query) return status;
   while (query->Step()) {
     history.push_back({query->ColumnInt(0), query->ColumnDouble(1), SnapshotAt(*query, 2)});
   }
-  *status = query->status();
+  if (!query->status().ok()) return query->status();
   return history;
 }
 
-std::vector<DeliveryRow> RunStore::DueDeliveries(double now, Status* status) {
+Result<std::vector<DeliveryRow>> RunStore::DueDeliveries(double now) {
   std::vector<DeliveryRow> due;
+  Status status;
   auto query = connection_->Prepare(
       std::string("SELECT d.channel, d.attempts, ") + kEventColumns +
           " FROM deliveries d JOIN events e ON e.id = d.event_id WHERE d.state = 'pending' AND "
           "d.next_attempt_at <= ?1 ORDER BY e.id, d.channel",
-      status);
-  if (!query) return due;
+      &status);
+  if (!query) return status;
   query->Bind(1, now);
   while (query->Step()) {
     DeliveryRow d;
@@ -444,7 +455,7 @@ std::vector<DeliveryRow> RunStore::DueDeliveries(double now, Status* status) {
     d.event = EventAt(*query, 2);
     due.push_back(std::move(d));
   }
-  *status = query->status();
+  if (!query->status().ok()) return query->status();
   return due;
 }
 
@@ -465,12 +476,13 @@ Status RunStore::RecordDelivery(std::int64_t event_id, const std::string& channe
   return update->Run();
 }
 
-int RunStore::CountDeliveries(const std::string& state, Status* status) {
-  auto query = connection_->Prepare("SELECT count(*) FROM deliveries WHERE state = ?1", status);
-  if (!query) return -1;
+Result<int> RunStore::CountDeliveries(const std::string& state) {
+  Status status;
+  auto query = connection_->Prepare("SELECT count(*) FROM deliveries WHERE state = ?1", &status);
+  if (!query) return status;
   query->Bind(1, state);
   const int count = query->Step() ? static_cast<int>(query->ColumnInt(0)) : -1;
-  *status = query->status();
+  if (!query->status().ok()) return query->status();
   return count;
 }
 

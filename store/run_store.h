@@ -17,6 +17,7 @@
 
 #include "core/convergence_tracker.h"
 #include "core/event_kind.h"
+#include "core/result.h"
 #include "core/status.h"
 #include "store/sqlite_connection.h"
 #include "store/store_schema.h"
@@ -159,11 +160,11 @@ class RunStore {
   // database page). A cycle rewrites only the pages that changed.
   static constexpr std::size_t kCheckpointPageDoubles = 480;
 
-  // Opens for writing (creating and migrating the schema) or for reading only. nullptr with *status
-  // set when the file cannot be opened, is not a plateau store, or comes from a newer schema.
-  static std::unique_ptr<RunStore> OpenForWriting(const std::string& path,
-                                                  const std::string& run_name, Status* status);
-  static std::unique_ptr<RunStore> OpenForReading(const std::string& path, Status* status);
+  // Opens for writing (creating and migrating the schema) or for reading only. An error when the
+  // file cannot be opened, is not a plateau store, or comes from a newer schema.
+  static Result<std::unique_ptr<RunStore>> OpenForWriting(const std::string& path,
+                                                          const std::string& run_name);
+  static Result<std::unique_ptr<RunStore>> OpenForReading(const std::string& path);
 
   // Writes one cycle in one transaction (all or nothing). Event ids are not returned. Of the
   // checkpoint, only the pages that differ from what this store last committed are written (the
@@ -172,21 +173,21 @@ class RunStore {
   // Checkpoint pages the last successful WriteCycle wrote (for tests and benchmarks).
   std::size_t checkpoint_pages_written() const { return checkpoint_pages_written_; }
   // The newest checkpoint; nullopt for a new store.
-  std::optional<StoredCheckpoint> ReadCheckpoint(Status* status);
-  // The newest cycle, read in one transaction; nullopt (with an ok status) before the first cycle.
-  std::optional<LatestView> ReadLatest(Status* status);
+  Result<std::optional<StoredCheckpoint>> ReadCheckpoint();
+  // The newest cycle, read in one transaction; nullopt before the first cycle.
+  Result<std::optional<LatestView>> ReadLatest();
   // Every snapshot of every cycle, cycle by cycle in configuration order, in one transaction.
-  std::vector<HistoryRow> ReadHistory(Status* status);
+  Result<std::vector<HistoryRow>> ReadHistory();
   // Events after `after_id`, oldest first, at most `limit`.
-  std::vector<EventRow> ReadEvents(std::int64_t after_id, int limit, Status* status);
+  Result<std::vector<EventRow>> ReadEvents(std::int64_t after_id, int limit);
   // Deliveries not yet made whose next attempt is due at `now`, oldest event first.
-  std::vector<DeliveryRow> DueDeliveries(double now, Status* status);
+  Result<std::vector<DeliveryRow>> DueDeliveries(double now);
   // Records an attempt: delivered, or failed with `error` and retried at `retry_at` (NaN: given
   // up after the last attempt).
   Status RecordDelivery(std::int64_t event_id, const std::string& channel, bool delivered,
                         const std::string& error, double now, double retry_at);
   // Deliveries made, for tests and status: (event id, channel) pairs with state "delivered".
-  int CountDeliveries(const std::string& state, Status* status);
+  Result<int> CountDeliveries(const std::string& state);
 
   // `PRAGMA integrity_check`: ok, or what SQLite found.
   Status CheckIntegrity();
@@ -199,7 +200,7 @@ class RunStore {
   explicit RunStore(std::unique_ptr<SqliteConnection> connection)
       : connection_(std::move(connection)) {}
   Status Migrate(const std::string& run_name);
-  std::vector<FileProgress> ReadFiles(Status* status);
+  Result<std::vector<FileProgress>> ReadFiles();
   using PageHashes = std::unordered_map<std::string, std::uint64_t>;
   // Inside WriteCycle's transaction: the checkpoint's changed pages (*written of them); `pages`
   // receives every page's hash, to become committed_pages_ once the transaction commits.

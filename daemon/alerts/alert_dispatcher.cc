@@ -29,12 +29,12 @@ void AlertDispatcher::ScheduleCheck() {
 }
 
 void AlertDispatcher::DispatchDue() {
-  Status status;
-  const std::vector<DeliveryRow> due = monitor_.store().DueDeliveries(WallSeconds(), &status);
-  if (!status.ok()) {
-    log_->error("cannot read the pending alerts: {}", status.message());
+  const Result<std::vector<DeliveryRow>> read = monitor_.store().DueDeliveries(WallSeconds());
+  if (!read.ok()) {
+    log_->error("cannot read the pending alerts: {}", read.error());
     return;
   }
+  const std::vector<DeliveryRow>& due = *read;
   // Each channel is made once for what is due now; a null one is no longer configured.
   std::map<AlertChannelKind, std::unique_ptr<AlertChannel>> channels;
   std::map<AlertChannelKind, std::vector<DeliveryRow>> digests;

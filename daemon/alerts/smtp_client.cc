@@ -125,9 +125,9 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
   asio::awaitable<void> Talk() {
     std::string password;
     if (!config_.username.empty()) {
-      std::string error;
-      password = SmtpPassword(config_, &error);
-      if (!error.empty()) throw SmtpError(error);
+      Result<std::string> read = SmtpPassword(config_);
+      if (!read.ok()) throw SmtpError(read.error());
+      password = std::move(read).value();
     }
     step_ = "connect";
     tcp::resolver resolver(io_);
@@ -168,25 +168,23 @@ class Conversation : public std::enable_shared_from_this<Conversation> {
 
 }  // namespace
 
-std::string SmtpPassword(const EmailConfig& config, std::string* error) {
+Result<std::string> SmtpPassword(const EmailConfig& config) {
   if (!config.password_file.empty()) {
     std::ifstream in(config.password_file);
     std::string line;
     if (!in || !std::getline(in, line)) {
-      *error = "cannot read the password file " + config.password_file;
-      return "";
+      return Status::Error("cannot read the password file " + config.password_file);
     }
     return line;
   }
   if (!config.password_env.empty()) {
     const char* value = std::getenv(config.password_env.c_str());
     if (value == nullptr) {
-      *error = "the environment variable " + config.password_env + " is not set";
-      return "";
+      return Status::Error("the environment variable " + config.password_env + " is not set");
     }
-    return value;
+    return std::string(value);
   }
-  return "";
+  return std::string();
 }
 
 void SendAlertMail(asio::io_context& io, const EmailConfig& config, const AlertMessage& message,

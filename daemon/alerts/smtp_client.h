@@ -13,7 +13,7 @@
 #include <functional>
 
 #include "config/run_config.h"
-#include "core/status.h"
+#include "core/result.h"
 #include "daemon/alerts/alert_message.h"
 
 namespace plateau {
@@ -24,8 +24,8 @@ void SendAlertMail(boost::asio::io_context& io, const EmailConfig& config,
                    const AlertMessage& message, std::function<void(Status)> done);
 
 // The password named by the config: the first line of password_file, or password_env's value.
-// Empty with *error set when it cannot be had; nothing when the config has no username.
-std::string SmtpPassword(const EmailConfig& config, std::string* error);
+// An error when it cannot be had; empty when the config names neither.
+Result<std::string> SmtpPassword(const EmailConfig& config);
 
 }  // namespace plateau
 

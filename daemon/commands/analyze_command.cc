@@ -222,16 +222,21 @@ class AnalyzeOwner : public SeriesSinkOwner {
   const std::string& error() const { return error_; }
 
   void StartSeries(const std::vector<std::string>& names, const std::string& path) override {
-    std::string error;
-    source_ = SourceStatistics::Make(names, options_.time_column, requests_, options_.capacity,
-                                     &error);
-    if (source_ && !source_->problems().empty()) {
-      error = source_->problems().front().message;
-    } else if (source_) {
-      source_->SetWeighting(options_.weighting);
-      source_->SetScales(options_.scales, &error);  // leaves `error` empty when every column is known
+    Result<SourceStatistics> made =
+        SourceStatistics::Make(names, options_.time_column, requests_, options_.capacity);
+    if (!made.ok()) {
+      error_ = path + ": " + made.error();
+      return;
     }
-    if (!source_ || !error.empty()) error_ = path + ": " + error;
+    source_ = std::move(made).value();
+    if (!source_->problems().empty()) {
+      error_ = path + ": " + source_->problems().front().message;
+      return;
+    }
+    source_->SetWeighting(options_.weighting);
+    if (const Status scaled = source_->SetScales(options_.scales); !scaled.ok()) {
+      error_ = path + ": " + scaled.message();
+    }
   }
 
   void RefuseSegment(const std::string&, const std::string& reason) override { error_ = reason; }
@@ -330,10 +335,10 @@ int RunAnalyzeCommand(const std::vector<std::string>& args, std::ostream& out, s
       RowParser parser = ParserFor(segment.path);
       AnalyzeOwner owner(options, requests, source, summary, analysis.notes);
       SeriesSink sink(ingest, rows, segment.path, parser, header_names, owner);
-      const FileReadResult read =
+      const Result<std::uint64_t> read =
           ReadProbeFile(segment.path, 0, parser, sink, [&] { return owner.error().empty(); });
-      if (!read.ok) {
-        err << "plateau analyze: " << read.error << "\n";
+      if (!read.ok()) {
+        err << "plateau analyze: " << read.error() << "\n";
         return 2;
       }
       if (!owner.error().empty()) {

@@ -226,20 +226,26 @@ int RunReportCommand(const std::vector<std::string>& args, std::ostream& out, st
     err << "plateau report: " << located.error << "\n";
     return 2;
   }
-  Status status;
-  const std::unique_ptr<RunStore> store = RunStore::OpenForReading(located.store_path, &status);
-  const std::optional<LatestView> latest = store ? store->ReadLatest(&status) : std::nullopt;
-  if (!latest) {
+  const Result<std::unique_ptr<RunStore>> store = RunStore::OpenForReading(located.store_path);
+  if (!store.ok()) {
+    err << "plateau report: " << store.error() << "\n";
+    return 2;
+  }
+  const Result<std::optional<LatestView>> read_latest = (*store)->ReadLatest();
+  if (!read_latest.ok() || !*read_latest) {
     err << "plateau report: "
-        << (status.ok() ? "store " + located.store_path + " has no evaluation yet" : status.message())
+        << (read_latest.ok() ? "store " + located.store_path + " has no evaluation yet"
+                             : read_latest.error())
         << "\n";
     return 2;
   }
-  const std::vector<HistoryRow> history = store->ReadHistory(&status);
-  if (!status.ok()) {
-    err << "plateau report: " << status.message() << "\n";
+  const std::optional<LatestView>& latest = *read_latest;
+  const Result<std::vector<HistoryRow>> read_history = (*store)->ReadHistory();
+  if (!read_history.ok()) {
+    err << "plateau report: " << read_history.error() << "\n";
     return 2;
   }
+  const std::vector<HistoryRow>& history = *read_history;
   if (html_path.empty()) {
     html_path = (fs::path(located.store_path).parent_path() / "plateau-report.html").string();
   }

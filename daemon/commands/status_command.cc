@@ -35,8 +35,7 @@ Reading Read(const std::string& argument) {
   }
   r.context.now = WallSeconds();
   if (const auto reply = AskDaemon(located.socket_path, "{\"request\":\"status\"}", kAskSeconds)) {
-    std::string ignored;
-    if (const auto document = ParseJsonDocument(*reply, &ignored)) {
+    if (const Result<JsonDocument> document = ParseJsonDocument(*reply); document.ok()) {
       r.view = LatestViewFromJson(*document, &r.context);
       if (r.view) {
         r.daemon_json = *reply;
@@ -46,16 +45,15 @@ Reading Read(const std::string& argument) {
   }
   r.context.store_path = located.store_path;
   r.context.answered_by = "store";
-  Status status;
-  const std::unique_ptr<RunStore> store = RunStore::OpenForReading(located.store_path, &status);
-  if (!store) {
-    r.error = status.message();
+  const Result<std::unique_ptr<RunStore>> store = RunStore::OpenForReading(located.store_path);
+  if (!store.ok()) {
+    r.error = store.error();
     return r;
   }
-  r.view = store->ReadLatest(&status);
-  if (!status.ok()) {
-    r.error = status.message();
-  } else if (!r.view) {
+  const Result<std::optional<LatestView>> latest = (*store)->ReadLatest();
+  if (!latest.ok()) {
+    r.error = latest.error();
+  } else if (!(r.view = *latest)) {
     r.error = "store " + located.store_path + " has no evaluation yet";
   }
   r.context.daemon_pid = StoreLock::HolderPid(located.store_path);

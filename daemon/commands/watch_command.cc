@@ -72,16 +72,15 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
     return 2;
   }
 
-  Status status;
-  std::unique_ptr<StoreLock> lock = StoreLock::Acquire(config->store_path, &status);
-  if (!lock) {
-    err << "plateau watch: " << status.message() << "\n";
+  const Result<std::unique_ptr<StoreLock>> lock = StoreLock::Acquire(config->store_path);
+  if (!lock.ok()) {
+    err << "plateau watch: " << lock.error() << "\n";
     return 2;
   }
-  std::unique_ptr<RunStore> store =
-      RunStore::OpenForWriting(config->store_path, config->run_name, &status);
-  if (!store) {
-    err << "plateau watch: " << status.message() << "\n";
+  Result<std::unique_ptr<RunStore>> store =
+      RunStore::OpenForWriting(config->store_path, config->run_name);
+  if (!store.ok()) {
+    err << "plateau watch: " << store.error() << "\n";
     return 2;
   }
   const auto log = MakeRunLogger(config->run_folder, config->run_name, o.quiet, config->alerts.syslog);
@@ -90,7 +89,7 @@ int RunWatchCommand(const std::vector<std::string>& args, std::ostream& out, std
             config->run_name, config->sources.size(), config->statistics.size(),
             config->store_path, o.poll_every.value_or(config->poll_every),
             o.evaluate_every.value_or(config->evaluate_every));
-  RunMonitor monitor(std::move(*config), std::move(store), log);
+  RunMonitor monitor(std::move(*config), std::move(store).value(), log);
   monitor.Restore();
   WatchLoop loop(monitor, o.poll_every, o.evaluate_every, log);
   const int code = loop.Run();

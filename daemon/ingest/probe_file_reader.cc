@@ -18,33 +18,31 @@ std::string SystemError(const std::string& what, const std::string& path) {
 
 }  // namespace
 
-FileReadResult ReadProbeFile(const std::string& path, std::uint64_t offset, RowParser& parser,
-                             RowSink& sink, const std::function<bool()>& keep_going) {
-  FileReadResult result;
+Result<std::uint64_t> ReadProbeFile(const std::string& path, std::uint64_t offset,
+                                    RowParser& parser, RowSink& sink,
+                                    const std::function<bool()>& keep_going) {
   const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
-  if (fd < 0) {
-    result.ok = false;
-    result.error = SystemError("cannot open", path);
-    return result;
-  }
+  if (fd < 0) return Status::Error(SystemError("cannot open", path));
+  std::uint64_t bytes = 0;
+  Status status;
   std::vector<char> buffer(kChunkBytes);
   off_t position = static_cast<off_t>(offset);
   while (true) {
     const ssize_t n = ::pread(fd, buffer.data(), buffer.size(), position);
     if (n < 0) {
       if (errno == EINTR) continue;
-      result.ok = false;
-      result.error = SystemError("cannot read", path);
+      status = Status::Error(SystemError("cannot read", path));
       break;
     }
     if (n == 0) break;
     parser.Feed(std::string_view(buffer.data(), static_cast<std::size_t>(n)), sink);
     position += n;
-    result.bytes += static_cast<std::uint64_t>(n);
+    bytes += static_cast<std::uint64_t>(n);
     if (keep_going && !keep_going()) break;
   }
   ::close(fd);
-  return result;
+  if (!status.ok()) return status;
+  return bytes;
 }
 
 }  // namespace plateau

@@ -7,19 +7,16 @@
 #include <functional>
 #include <string>
 
+#include "core/result.h"
 #include "core/row_parser.h"
 
 namespace plateau {
 
-struct FileReadResult {
-  bool ok = true;
-  std::string error;        // "cannot open runs/a.dat: No such file or directory"
-  std::uint64_t bytes = 0;  // bytes read in this call
-};
-
-// Reads `path` from `offset` (bytes) to its end. `keep_going` is asked after every chunk; reading
-// stops early when it returns false (a caller that met a fatal layout error).
-FileReadResult ReadProbeFile(const std::string& path, std::uint64_t offset, RowParser& parser,
+// Reads `path` from `offset` (bytes) to its end; returns the bytes read in this call, or an error
+// such as "cannot open runs/a.dat: No such file or directory" (the rows fed before a read error
+// stay fed). `keep_going` is asked after every chunk; reading stops early when it returns false
+// (a caller that met a fatal layout error).
+Result<std::uint64_t> ReadProbeFile(const std::string& path, std::uint64_t offset, RowParser& parser,
                              RowSink& sink, const std::function<bool()>& keep_going = {});
 
 }  // namespace plateau

@@ -93,10 +93,10 @@ SegmentSample Sample(const std::string& path, const std::string& time_column,
   } sink;
   sink.time_column = time_column;
   RowParser parser = ParserFor(path);
-  const FileReadResult read = ReadProbeFile(path, 0, parser, sink, [&] {
+  const Result<std::uint64_t> read = ReadProbeFile(path, 0, parser, sink, [&] {
     return sink.s.rows < kSampleRows && sink.s.bad_lines < kSampleRows;
   });
-  if (!read.ok) *read_error = read.error;
+  if (!read.ok()) *read_error = read.error();
   for (double s : sink.sum_sq) {
     sink.s.deviation.push_back(sink.s.rows > 1 ? std::sqrt(s / (sink.s.rows - 1)) : 0.0);
   }

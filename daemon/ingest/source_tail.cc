@@ -117,18 +117,19 @@ SourceTail::SourceTail(SourceConfig config, std::vector<StatisticRequest> reques
 
 void SourceTail::StartSource(const std::vector<std::string>& columns,
                              const std::string& from_file) {
-  std::string error;
-  series_.source = SourceStatistics::Make(columns, config_.time_column, requests_, blocks_, &error);
-  if (!series_.source) {
+  Result<SourceStatistics> made =
+      SourceStatistics::Make(columns, config_.time_column, requests_, blocks_);
+  if (!made.ok()) {
     log_->error("source '{}' ({}): {}; nothing of it can be estimated until the config is fixed",
-                config_.name, from_file, error);
+                config_.name, from_file, made.error());
     return;
   }
+  series_.source = std::move(made).value();
   series_.source->SetWeighting(config_.weighting);
-  if (!series_.source->SetScales(config_.scales, &error)) {
+  if (const Status scaled = series_.source->SetScales(config_.scales); !scaled.ok()) {
     log_->error("source '{}' ({}): {}; the columns are {}; no factor is applied until the config "
                 "is fixed",
-                config_.name, from_file, error, JoinedNames(columns));
+                config_.name, from_file, scaled.message(), JoinedNames(columns));
   }
   for (const SourceStatistics::Problem& p : series_.source->problems()) {
     log_->error("statistic '{}' of source '{}': {}", requests_[p.request].name, config_.name,
@@ -241,16 +242,16 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
   SeriesSink sink(series_, file.rows, file.path, file.parser, config_.columns, owner);
   const std::uint64_t recorded_before = file.rows.rows - file.rows.overlap_rows;
   const std::uint64_t start = file.parser.consumed_bytes();
-  const FileReadResult read = ReadProbeFile(file.path, from, file.parser, sink, [&] {
+  const Result<std::uint64_t> read = ReadProbeFile(file.path, from, file.parser, sink, [&] {
     return file.parser.consumed_bytes() - start < kBytesPerPoll && !file.rows.refused;
   });
-  if (!read.ok) {
+  if (!read.ok()) {
     // Once per spell, not once per poll: a file unreadable for a day must not fill the log.
     if (!file.unreadable) {
       log_->warn(
           "{}; the {} samples read from it are kept, and reading resumes from byte {} "
           "when it can be read again",
-          read.error, file.parser.rows(), file.parser.consumed_bytes());
+          read.error(), file.parser.rows(), file.parser.consumed_bytes());
     }
     file.unreadable = true;
     return false;
@@ -267,7 +268,7 @@ bool SourceTail::ReadFile(TrackedFile& file, double wall_time) {
                file.parser.bad_lines());
     file.bad_lines_reported = file.parser.bad_lines();
   }
-  return from + read.bytes < size;
+  return from + *read < size;
 }
 
 bool SourceTail::Poll(double wall_time) {

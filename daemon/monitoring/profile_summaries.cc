@@ -50,14 +50,14 @@ ProfileSummaries::ProfileSummaries(const RunConfig& config,
       std::ifstream in(path);
       std::stringstream text;
       text << in.rdbuf();
-      std::string error;
-      auto table = in ? ReadProfileTable(text.str(), &error) : decltype(ReadProfileTable("", &error)){};
-      if (!in) error = "cannot read it";
-      if (table.empty()) {
-        log->error("reference profile {} for {} {}: {}; left out", path, p.name, quantity, error);
+      Result<std::vector<std::pair<double, double>>> table =
+          in ? ReadProfileTable(text.str()) : Status::Error("cannot read it");
+      if (!table.ok()) {
+        log->error("reference profile {} for {} {}: {}; left out", path, p.name, quantity,
+                   table.error());
         continue;
       }
-      references_[p.name + "/" + quantity] = std::move(table);
+      references_[p.name + "/" + quantity] = std::move(table).value();
     }
   }
 }

@@ -52,13 +52,13 @@ void RunMonitor::AssignConfidences() {
 }
 
 void RunMonitor::Restore() {
-  Status status;
-  const std::optional<StoredCheckpoint> checkpoint = store_->ReadCheckpoint(&status);
-  if (!status.ok()) {
+  const Result<std::optional<StoredCheckpoint>> read = store_->ReadCheckpoint();
+  if (!read.ok()) {
     log_->error("cannot read the checkpoint: {}; starting from the beginning of every file",
-                status.message());
+                read.error());
     return;
   }
+  const std::optional<StoredCheckpoint>& checkpoint = *read;
   if (!checkpoint) {
     log_->info("new store {}: reading every file from its start", store_->path());
     return;

@@ -15,7 +15,7 @@ std::string JsonText(const JsonDocument& document) {
   return document.dump(-1, ' ', false, nlohmann::detail::error_handler_t::replace);
 }
 
-std::optional<JsonDocument> ParseJsonDocument(std::string_view text, std::string* error) {
+Result<JsonDocument> ParseJsonDocument(std::string_view text) {
   // The callback sees each value as it opens; a container past the limit stops the parse before
   // anything deeper is built.
   const auto limit_depth = [](int depth, JsonDocument::parse_event_t event, JsonDocument&) {
@@ -29,17 +29,16 @@ std::optional<JsonDocument> ParseJsonDocument(std::string_view text, std::string
   try {
     return JsonDocument::parse(text.begin(), text.end(), limit_depth);
   } catch (const TooDeep&) {
-    *error = "more than " + std::to_string(kJsonMaxDepth) + " levels of nesting";
+    return Status::Error("more than " + std::to_string(kJsonMaxDepth) + " levels of nesting");
   } catch (const JsonDocument::parse_error& e) {
     // what(): "[json.exception.parse_error.101] parse error at line 1, column 12: ..."
     const std::string what = e.what();
     const std::size_t colon = what.find(": ");
-    *error = "at byte " + std::to_string(e.byte) + ": " +
-             (colon == std::string::npos ? what : what.substr(colon + 2));
+    return Status::Error("at byte " + std::to_string(e.byte) + ": " +
+                         (colon == std::string::npos ? what : what.substr(colon + 2)));
   } catch (const JsonDocument::exception& e) {
-    *error = e.what();
+    return Status::Error(e.what());
   }
-  return std::nullopt;
 }
 
 const JsonDocument* FindMember(const JsonDocument& object, std::string_view key) {

@@ -10,6 +10,8 @@
 #include <string>
 #include <string_view>
 
+#include "core/result.h"
+
 namespace plateau {
 
 using JsonDocument = nlohmann::ordered_json;
@@ -20,9 +22,9 @@ constexpr int kJsonMaxDepth = 32;
 // One line, no spaces; bytes that are not UTF-8 (a file name in Latin-1) become U+FFFD.
 std::string JsonText(const JsonDocument& document);
 
-// One whole document (surrounding white space allowed); nullopt with *error set to
-// "at byte N: what went wrong" for anything else.
-std::optional<JsonDocument> ParseJsonDocument(std::string_view text, std::string* error);
+// One whole document (surrounding white space allowed); for anything else an error
+// "at byte N: what went wrong".
+Result<JsonDocument> ParseJsonDocument(std::string_view text);
 
 // The member `key` of an object; nullptr when absent or `object` is not an object.
 const JsonDocument* FindMember(const JsonDocument& object, std::string_view key);

@@ -21,26 +21,23 @@ long ReadPid(int fd) {
 
 }  // namespace
 
-std::unique_ptr<StoreLock> StoreLock::Acquire(const std::string& store_path, Status* status) {
+Result<std::unique_ptr<StoreLock>> StoreLock::Acquire(const std::string& store_path) {
   const std::string path = LockPath(store_path);
   const int fd = ::open(path.c_str(), O_RDWR | O_CREAT | O_CLOEXEC, 0644);
   if (fd < 0) {
-    *status = Status::Error("cannot create the lock file " + path + ": " + std::strerror(errno));
-    return nullptr;
+    return Status::Error("cannot create the lock file " + path + ": " + std::strerror(errno));
   }
   if (::flock(fd, LOCK_EX | LOCK_NB) != 0) {
     const long pid = ReadPid(fd);
     ::close(fd);
-    *status = Status::Error("the store " + store_path + " is in use by another plateau watch" +
-                            (pid > 0 ? " (process " + std::to_string(pid) + ")" : "") +
-                            "; stop it first, or give this run its own store");
-    return nullptr;
+    return Status::Error("the store " + store_path + " is in use by another plateau watch" +
+                         (pid > 0 ? " (process " + std::to_string(pid) + ")" : "") +
+                         "; stop it first, or give this run its own store");
   }
   const std::string pid = std::to_string(::getpid()) + "\n";
   if (::ftruncate(fd, 0) != 0 || ::pwrite(fd, pid.data(), pid.size(), 0) < 0) {
     // The lock itself is what counts; a pid that could not be written only makes messages vaguer.
   }
-  *status = Status::Ok();
   return std::unique_ptr<StoreLock>(new StoreLock(fd));
 }
 

@@ -7,14 +7,14 @@
 #include <memory>
 #include <string>
 
-#include "core/status.h"
+#include "core/result.h"
 
 namespace plateau {
 
 class StoreLock {
  public:
-  // Takes the lock, or returns nullptr with *status saying which process holds it.
-  static std::unique_ptr<StoreLock> Acquire(const std::string& store_path, Status* status);
+  // Takes the lock, or an error saying which process holds it.
+  static Result<std::unique_ptr<StoreLock>> Acquire(const std::string& store_path);
   ~StoreLock();
   StoreLock(const StoreLock&) = delete;
   StoreLock& operator=(const StoreLock&) = delete;

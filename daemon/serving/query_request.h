@@ -9,6 +9,8 @@
 #include <string>
 #include <string_view>
 
+#include "core/result.h"
+
 namespace plateau {
 
 struct QueryRequest {
@@ -18,9 +20,9 @@ struct QueryRequest {
   std::int64_t after = 0;    // events: ids above this
 };
 
-// nullopt with *error ("not JSON: at byte 3: expected ':'", "unknown request 'stats'; expected
+// An error ("not JSON: at byte 3: expected ':'", "unknown request 'stats'; expected
 // status, check, events or reload", ...) for anything that is not a valid request.
-std::optional<QueryRequest> ParseQueryRequest(std::string_view line, std::string* error);
+Result<QueryRequest> ParseQueryRequest(std::string_view line);
 
 }  // namespace plateau
 

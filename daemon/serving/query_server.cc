@@ -139,9 +139,8 @@ void QueryServer::Accept() {
 }
 
 std::string QueryServer::Answer(std::string_view line) {
-  std::string error;
-  const std::optional<QueryRequest> request = ParseQueryRequest(line, &error);
-  if (!request) return ErrorJson(error);
+  const Result<QueryRequest> request = ParseQueryRequest(line);
+  if (!request.ok()) return ErrorJson(request.error());
   StatusContext context{monitor_.store().path(), static_cast<long>(::getpid()), "daemon",
                         WallSeconds()};
   switch (request->kind) {
@@ -162,14 +161,13 @@ std::string QueryServer::Answer(std::string_view line) {
       return json.text();
     }
     case QueryRequest::Kind::kEvents: {
-      Status status;
-      const std::vector<EventRow> events = monitor_.store().ReadEvents(request->after, 1000, &status);
-      if (!status.ok()) return ErrorJson(status.message());
+      const Result<std::vector<EventRow>> events = monitor_.store().ReadEvents(request->after, 1000);
+      if (!events.ok()) return ErrorJson(events.error());
       JsonWriter json;
       json.BeginObject();
       json.Key("events");
       json.BeginArray();
-      for (const EventRow& e : events) {
+      for (const EventRow& e : *events) {
         json.BeginObject();
         json.Field("id", e.id);
         json.Field("kind", EventKindName(e.kind));

@@ -109,13 +109,12 @@ std::unique_ptr<plateau::RunMonitor> OpenMonitor(const fs::path& dir) {
     std::fprintf(stderr, "%s\n", errors.front().ToString().c_str());
     std::exit(1);
   }
-  plateau::Status status;
-  auto store = plateau::RunStore::OpenForWriting(config->store_path, "scale", &status);
-  if (!store) {
-    std::fprintf(stderr, "%s\n", status.message().c_str());
+  auto store = plateau::RunStore::OpenForWriting(config->store_path, "scale");
+  if (!store.ok()) {
+    std::fprintf(stderr, "%s\n", store.error().c_str());
     std::exit(1);
   }
-  auto monitor = std::make_unique<plateau::RunMonitor>(std::move(*config), std::move(store),
+  auto monitor = std::make_unique<plateau::RunMonitor>(std::move(*config), std::move(store).value(),
                                                        plateau::MakeSilentLogger());
   monitor->Restore();
   return monitor;

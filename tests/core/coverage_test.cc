@@ -182,9 +182,7 @@ ReferenceSeriesCoverage MeasureReferenceSeriesCoverage() {
         MakeRequest(StatisticKind::kMean, {"tau"}), MakeRequest(StatisticKind::kMean, {"dpdx"}),
         MakeRequest(StatisticKind::kWeightedSum, {"tau", "dpdx"}, "tau - reference")};
     requests[2].weights = {1.0, kDelta};  // tau - (-delta) dpdx
-    std::string error;
-    std::optional<SourceStatistics> source =
-        SourceStatistics::Make({"t", "tau", "dpdx"}, "", requests, 4096, &error);
+    Result<SourceStatistics> source = SourceStatistics::Make({"t", "tau", "dpdx"}, "", requests, 4096);
     for (std::size_t t = 0; t < kSamples; ++t) {
       const double fluctuation = 0.3 * common[t];
       const double row[3] = {static_cast<double>(t),
@@ -252,11 +250,10 @@ TEST(Coverage, TimeWeightedMeanUnderACourantSteppedRunCoversTheTimeAverage) {
   int covered_by_time = 0, covered_by_samples = 0;
   for (int r = 0; r < kReplications; ++r) {
     const std::vector<std::array<double, 2>> rows = CourantSteppedProbe::Rows(kRows, 90000 + r);
-    std::string error;
     const std::vector<StatisticRequest> requests = {MakeRequest(StatisticKind::kMean, {"u"})};
-    std::optional<SourceStatistics> timed = SourceStatistics::Make({"t", "u"}, "", requests, 4096, &error);
-    std::optional<SourceStatistics> counted = SourceStatistics::Make({"t", "u"}, "", requests, 4096, &error);
-    ASSERT_TRUE(timed && counted) << error;
+    Result<SourceStatistics> timed = SourceStatistics::Make({"t", "u"}, "", requests, 4096);
+    Result<SourceStatistics> counted = SourceStatistics::Make({"t", "u"}, "", requests, 4096);
+    ASSERT_TRUE(timed.ok() && counted.ok()) << timed.error() << counted.error();
     counted->SetWeighting(Weighting::kSamples);
     for (const std::array<double, 2>& row : rows) {
       timed->Add(row.data());

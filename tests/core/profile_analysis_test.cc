@@ -60,10 +60,10 @@ TEST(ProfileAnalysis, WallUnitsAndInterpolation) {
   const std::vector<std::pair<double, double>> table{{0.0, 0.0}, {10.0, 5.0}, {30.0, 13.0}};
   EXPECT_DOUBLE_EQ(Interpolate(table, 20.0), 9.0);
   EXPECT_TRUE(std::isnan(Interpolate(table, 31.0)));
-  std::string error;
-  EXPECT_EQ(ReadProfileTable("# y+ U+\n1 1\n\n5 4.9\n", &error).size(), 2u);
-  EXPECT_TRUE(ReadProfileTable("1 x\n", &error).empty());
-  EXPECT_EQ(error, "line 1: expected two numbers, x and value");
+  EXPECT_EQ(ReadProfileTable("# y+ U+\n1 1\n\n5 4.9\n")->size(), 2u);
+  const auto bad = ReadProfileTable("1 x\n");
+  EXPECT_FALSE(bad.ok());
+  EXPECT_EQ(bad.error(), "line 1: expected two numbers, x and value");
 }
 
 TEST(DerivedEstimate, FrictionVelocityErrorMatchesAMonteCarloOfTheSameData) {

@@ -26,11 +26,10 @@ void ExpectRelative(double actual, double expected, double tolerance, const std:
 
 SourceStatistics MakeSource(const std::vector<std::string>& columns,
                             const std::vector<StatisticRequest>& requests, Weighting weighting) {
-  std::string error;
-  std::optional<SourceStatistics> source = SourceStatistics::Make(columns, "", requests, 4096, &error);
-  EXPECT_TRUE(source) << error;
+  Result<SourceStatistics> source = SourceStatistics::Make(columns, "", requests, 4096);
+  EXPECT_TRUE(source.ok()) << source.error();
   EXPECT_TRUE(source->SetWeighting(weighting));
-  return std::move(*source);
+  return std::move(source).value();
 }
 
 EvaluationOptions NoWarmup() {

@@ -159,14 +159,13 @@ TEST_F(CycleDocuments, AnalyzeAndStatusOfTheDemoRunAreAsBefore) {
   std::vector<ConfigError> errors;
   std::optional<RunConfig> config = LoadRunConfig((run / "channel.yaml").string(), &errors);
   ASSERT_TRUE(config) << (errors.empty() ? "" : errors[0].ToString());
-  Status status;
-  std::unique_ptr<RunStore> store =
-      RunStore::OpenForWriting(config->store_path, config->run_name, &status);
-  ASSERT_TRUE(store) << status.message();
+  Result<std::unique_ptr<RunStore>> store =
+      RunStore::OpenForWriting(config->store_path, config->run_name);
+  ASSERT_TRUE(store.ok()) << store.error();
 
   // Twelve cycles while the files grow, then four more after the solver has stopped.
   const auto files = SeriesFiles(generated / "output");
-  RunMonitor monitor(std::move(*config), std::move(store), MakeSilentLogger());
+  RunMonitor monitor(std::move(*config), std::move(store).value(), MakeSilentLogger());
   monitor.Restore();
   double wall = kFirstWall;
   for (int cycle = 1; cycle <= 16; ++cycle) {
@@ -178,10 +177,11 @@ TEST_F(CycleDocuments, AnalyzeAndStatusOfTheDemoRunAreAsBefore) {
   }
   ASSERT_TRUE(monitor.run_met()) << "the pinned run should show the demo's outcome";
 
-  const std::unique_ptr<RunStore> reader = RunStore::OpenForReading(monitor.store().path(), &status);
-  ASSERT_TRUE(reader) << status.message();
-  const std::optional<LatestView> view = reader->ReadLatest(&status);
-  ASSERT_TRUE(view) << status.message();
+  const Result<std::unique_ptr<RunStore>> reader = RunStore::OpenForReading(monitor.store().path());
+  ASSERT_TRUE(reader.ok()) << reader.error();
+  const Result<std::optional<LatestView>> latest = (*reader)->ReadLatest();
+  ASSERT_TRUE(latest.ok() && *latest) << latest.error();
+  const std::optional<LatestView>& view = *latest;
   StatusContext context;
   context.store_path = "RUN/plateau.db";
   context.answered_by = "store";
@@ -189,11 +189,10 @@ TEST_F(CycleDocuments, AnalyzeAndStatusOfTheDemoRunAreAsBefore) {
   std::string status_json = StatusJson(*view, context);
   std::string status_table = StatusTable(*view, context);
   // The daemon's path: status reads its JSON answer back into a view and shows the same table.
-  std::string ignored;
   StatusContext read_back;
   read_back.now = context.now;  // the reader's own clock, as plateau status sets it
   const std::optional<LatestView> from_json =
-      LatestViewFromJson(*ParseJsonDocument(status_json, &ignored), &read_back);
+      LatestViewFromJson(*ParseJsonDocument(status_json), &read_back);
   ASSERT_TRUE(from_json);
   EXPECT_EQ(StatusTable(*from_json, read_back), status_table);
 

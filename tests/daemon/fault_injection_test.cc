@@ -64,9 +64,8 @@ class FaultInjection : public testing::RunFolder {
   }
 
   bool IntegrityOk() {
-    Status status;
-    auto store = RunStore::OpenForReading(Path(store_), &status);
-    return store && store->CheckIntegrity().ok();
+    const auto store = RunStore::OpenForReading(Path(store_));
+    return store.ok() && (*store)->CheckIntegrity().ok();
   }
 
   int CountInLog(const std::string& text) {
@@ -193,10 +192,9 @@ TEST_F(FaultInjection, RunFolderMovedAwayAndBackGoesOnWhereItWas) {
   }
   // The moved store holds every sample read, intact.
   {
-    Status status;
-    auto store = RunStore::OpenForReading(moved + "/plateau.db", &status);
-    ASSERT_TRUE(store) << status.message();
-    EXPECT_TRUE(store->CheckIntegrity().ok());
+    const auto store = RunStore::OpenForReading(moved + "/plateau.db");
+    ASSERT_TRUE(store.ok()) << store.error();
+    EXPECT_TRUE((*store)->CheckIntegrity().ok());
   }
   fs::rename(moved, dir_);
   fs::remove(moved + "_watch.log");

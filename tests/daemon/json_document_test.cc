@@ -12,13 +12,24 @@
 namespace plateau {
 namespace {
 
+// Whether `text` parses; *error gets the refusal's message (empty when it parsed).
+bool JsonParses(std::string_view text, std::string* error) {
+  const Result<JsonDocument> parsed = ParseJsonDocument(text);
+  *error = parsed.error();
+  return parsed.ok();
+}
+
+bool RequestParses(std::string_view line, std::string* error) {
+  const Result<QueryRequest> parsed = ParseQueryRequest(line);
+  *error = parsed.error();
+  return parsed.ok();
+}
+
 TEST(JsonDocument, ParsesTheDocumentsOfTheProtocol) {
-  std::string error;
   const auto v = ParseJsonDocument(
       R"( {"request": "events", "after": 12, "list": [1, -2.5e3, true, null],
-            "text": "tab\t\"q\" \u00e9 \ud83d\ude00"} )",
-      &error);
-  ASSERT_TRUE(v) << error;
+            "text": "tab\t\"q\" \u00e9 \ud83d\ude00"} )");
+  ASSERT_TRUE(v.ok()) << v.error();
   EXPECT_EQ(TextOr(*v, "request"), "events");
   EXPECT_EQ(NumberOr(*v, "after"), 12);
   ASSERT_EQ(v->at("list").size(), 4u);
@@ -31,25 +42,25 @@ TEST(JsonDocument, ParsesTheDocumentsOfTheProtocol) {
 TEST(JsonDocument, MalformedInputSaysWhereAndWhat) {
   std::string error;
   // nlohmann-json counts to the end of the token it did not expect: the string "status".
-  EXPECT_FALSE(ParseJsonDocument(R"({"request" "status"})", &error));
+  EXPECT_FALSE(JsonParses(R"({"request" "status"})", &error));
   EXPECT_EQ(error.substr(0, 12), "at byte 19: ") << error;
   EXPECT_NE(error.find("expected ':'"), std::string::npos) << error;
-  EXPECT_FALSE(ParseJsonDocument(R"({"a": 1} x)", &error));
+  EXPECT_FALSE(JsonParses(R"({"a": 1} x)", &error));
   EXPECT_EQ(error.substr(0, 11), "at byte 10:") << error;
   EXPECT_NE(error.find("end of input"), std::string::npos) << error;
-  EXPECT_FALSE(ParseJsonDocument("\"unterminated", &error));
-  EXPECT_FALSE(ParseJsonDocument("+1", &error));
-  EXPECT_FALSE(ParseJsonDocument("[1e999]", &error));
-  EXPECT_FALSE(ParseJsonDocument("\"a\x01\"", &error));
-  EXPECT_FALSE(ParseJsonDocument("", &error));
+  EXPECT_FALSE(JsonParses("\"unterminated", &error));
+  EXPECT_FALSE(JsonParses("+1", &error));
+  EXPECT_FALSE(JsonParses("[1e999]", &error));
+  EXPECT_FALSE(JsonParses("\"a\x01\"", &error));
+  EXPECT_FALSE(JsonParses("", &error));
 }
 
 TEST(JsonDocument, DeepNestingIsRefusedNotBuilt) {
   std::string error;
-  EXPECT_FALSE(ParseJsonDocument(std::string(100000, '['), &error));
+  EXPECT_FALSE(JsonParses(std::string(100000, '['), &error));
   EXPECT_EQ(error, "more than 32 levels of nesting");
-  EXPECT_TRUE(ParseJsonDocument(std::string(32, '[') + std::string(32, ']'), &error)) << error;
-  EXPECT_FALSE(ParseJsonDocument(std::string(33, '[') + std::string(33, ']'), &error));
+  EXPECT_TRUE(JsonParses(std::string(32, '[') + std::string(32, ']'), &error)) << error;
+  EXPECT_FALSE(JsonParses(std::string(33, '[') + std::string(33, ']'), &error));
 }
 
 TEST(JsonDocument, TheWriterKeepsTheOrderWrittenAndWritesNoNumberJsonLacks) {
@@ -73,24 +84,21 @@ TEST(JsonDocument, TheWriterKeepsTheOrderWrittenAndWritesNoNumberJsonLacks) {
 }
 
 TEST(QueryRequest, KnownRequestsAndTheirArguments) {
-  std::string error;
-  EXPECT_EQ(ParseQueryRequest(R"({"request":"status"})", &error)->kind,
-            QueryRequest::Kind::kStatus);
-  const auto check = ParseQueryRequest(R"({"request":"check","stat":"tau"})", &error);
+  EXPECT_EQ(ParseQueryRequest(R"({"request":"status"})")->kind, QueryRequest::Kind::kStatus);
+  const auto check = ParseQueryRequest(R"({"request":"check","stat":"tau"})");
   EXPECT_EQ(check->statistic, "tau");
-  EXPECT_EQ(ParseQueryRequest(R"({"request":"events","after":41})", &error)->after, 41);
-  EXPECT_EQ(ParseQueryRequest(R"({"request":"reload"})", &error)->kind,
-            QueryRequest::Kind::kReload);
+  EXPECT_EQ(ParseQueryRequest(R"({"request":"events","after":41})")->after, 41);
+  EXPECT_EQ(ParseQueryRequest(R"({"request":"reload"})")->kind, QueryRequest::Kind::kReload);
 }
 
 TEST(QueryRequest, WrongRequestsGetAReason) {
   std::string error;
-  EXPECT_FALSE(ParseQueryRequest(R"({"request":"stats"})", &error));
+  EXPECT_FALSE(RequestParses(R"({"request":"stats"})", &error));
   EXPECT_EQ(error, "unknown request 'stats'; expected status, check, events or reload");
-  EXPECT_FALSE(ParseQueryRequest("[1]", &error));
+  EXPECT_FALSE(RequestParses("[1]", &error));
   EXPECT_EQ(error, "a request is a JSON object such as {\"request\": \"status\"}");
-  EXPECT_FALSE(ParseQueryRequest(R"({"request":"events","after":-1})", &error));
-  EXPECT_FALSE(ParseQueryRequest("status", &error));
+  EXPECT_FALSE(RequestParses(R"({"request":"events","after":-1})", &error));
+  EXPECT_FALSE(RequestParses("status", &error));
   EXPECT_EQ(error.substr(0, 9), "not JSON:");
 }
 

@@ -94,10 +94,9 @@ class ProfileIntegration : public testing::RunFolder {
     daemon.Signal(SIGTERM);
     EXPECT_EQ(daemon.Wait(20), 0);
     const testing::CommandResult status = Plateau({"status", "--json", Path("run.yaml")});
-    std::string error;
-    auto document = ParseJsonDocument(status.out, &error);
-    EXPECT_TRUE(document) << error;
-    return document ? *document : JsonDocument();
+    auto document = ParseJsonDocument(status.out);
+    EXPECT_TRUE(document.ok()) << document.error();
+    return document.ok() ? *document : JsonDocument();
   }
 
   static const JsonDocument* Named(const JsonDocument& document, const std::string& name) {

@@ -153,9 +153,8 @@ TEST_F(QueryAndMetrics, DaemonAndStoreGiveTheSameTimeToTarget) {
   StartWithData(daemon, "", "{relative: 0.002}");
   std::unique_ptr<WatchDaemon> owner(daemon);
   ASSERT_TRUE(WaitFor([&] { return Latest() && Latest()->cycle >= 3; }, 10));
-  std::string error;
-  const auto status = ParseJsonDocument(Exchange(Socket(), "{\"request\":\"status\"}\n"), &error);
-  ASSERT_TRUE(status.has_value()) << error;
+  const auto status = ParseJsonDocument(Exchange(Socket(), "{\"request\":\"status\"}\n"));
+  ASSERT_TRUE(status.ok()) << status.error();
   const JsonDocument* eta = FindMember(*status, "time_to_target");
   ASSERT_NE(eta, nullptr);
   ASSERT_TRUE(eta->is_object());

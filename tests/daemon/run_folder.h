@@ -87,17 +87,17 @@ class RunFolder : public ::testing::Test {
   }
 
   std::optional<LatestView> Latest() {
-    Status status;
-    auto store = RunStore::OpenForReading(Path(store_), &status);
-    if (!store) return std::nullopt;
-    return store->ReadLatest(&status);
+    const auto store = RunStore::OpenForReading(Path(store_));
+    if (!store.ok()) return std::nullopt;
+    const auto latest = (*store)->ReadLatest();
+    return latest.ok() ? *latest : std::nullopt;
   }
 
   std::vector<EventRow> Events() {
-    Status status;
-    auto store = RunStore::OpenForReading(Path(store_), &status);
-    if (!store) return {};
-    return store->ReadEvents(0, 1000, &status);
+    const auto store = RunStore::OpenForReading(Path(store_));
+    if (!store.ok()) return {};
+    const auto events = (*store)->ReadEvents(0, 1000);
+    return events.ok() ? *events : std::vector<EventRow>();
   }
 
   // samples_total of statistic `index` in the newest cycle; -1 before any cycle.

@@ -33,10 +33,10 @@ class ServerShutdown : public ::testing::Test {
     RunConfig config;
     config.run_name = "shutdown";
     config.store_path = (folder_ / "plateau.db").string();
-    Status status;
-    auto store = RunStore::OpenForWriting(config.store_path, config.run_name, &status);
-    ASSERT_TRUE(store) << status.message();
-    monitor_ = std::make_unique<RunMonitor>(std::move(config), std::move(store), MakeSilentLogger());
+    auto store = RunStore::OpenForWriting(config.store_path, config.run_name);
+    ASSERT_TRUE(store.ok()) << store.error();
+    monitor_ = std::make_unique<RunMonitor>(std::move(config), std::move(store).value(),
+                                            MakeSilentLogger());
   }
   void TearDown() override {
     monitor_.reset();

@@ -217,8 +217,9 @@ TEST_F(Soak, FlatMemoryNoDescriptorLeakEverySampleOnceNoEventTwice) {
   }
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(20), 0);
-  Status status;
-  EXPECT_TRUE(RunStore::OpenForReading(Path("plateau.db"), &status)->CheckIntegrity().ok());
+  const auto store = RunStore::OpenForReading(Path("plateau.db"));
+  ASSERT_TRUE(store.ok()) << store.error();
+  EXPECT_TRUE((*store)->CheckIntegrity().ok());
 }
 
 }  // namespace

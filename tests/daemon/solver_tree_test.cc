@@ -38,10 +38,9 @@ class SolverTreeRun : public testing::RunFolder {
     all.push_back("--json");
     std::ostringstream out, err;
     EXPECT_EQ(RunAnalyzeCommand(all, out, err), 0) << err.str();
-    std::string error;
-    auto json = ParseJsonDocument(out.str(), &error);
-    EXPECT_TRUE(json.has_value()) << error;
-    return json ? *json : JsonDocument();
+    auto json = ParseJsonDocument(out.str());
+    EXPECT_TRUE(json.ok()) << json.error();
+    return json.ok() ? *json : JsonDocument();
   }
 
   // The daemon's log beside the config: init names the run after the folder it ran in.
@@ -137,9 +136,8 @@ TEST_F(SolverTreeRun, WatchedTreeCountsEverySampleOnceAndEqualsAnalyzeOnTheUncut
   ASSERT_TRUE(WaitFor(all_read, 120)) << ReadAll(Path("watch.log"));
   const auto status = Plateau({"status", Path("run.yaml"), "--json"});
   ASSERT_EQ(status.exit_code, 0) << status.err;
-  std::string error;
-  const auto document = ParseJsonDocument(status.out, &error);
-  ASSERT_TRUE(document.has_value()) << error;
+  const auto document = ParseJsonDocument(status.out);
+  ASSERT_TRUE(document.ok()) << document.error();
   const auto watched = ByName(*document);
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
@@ -318,9 +316,8 @@ statistics:
   const auto status = Plateau({"status", Path("run.yaml"), "--json"});
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
-  std::string error;
-  const auto document = ParseJsonDocument(status.out, &error);
-  ASSERT_TRUE(document.has_value()) << error << status.out;
+  const auto document = ParseJsonDocument(status.out);
+  ASSERT_TRUE(document.ok()) << document.error() << status.out;
   const auto named = ByName(*document);
   ASSERT_EQ(named.count("tau_w"), 1u);
   ASSERT_EQ(named.count("tau_w - reference"), 1u);  // the joint difference, averaged per sample
@@ -383,9 +380,8 @@ statistics:
   const auto table = Plateau({"status", Path("run.yaml")});
   daemon.Signal(SIGTERM);
   EXPECT_EQ(daemon.Wait(30), 0);
-  std::string error;
-  const auto document = ParseJsonDocument(status.out, &error);
-  ASSERT_TRUE(document.has_value()) << error << status.out;
+  const auto document = ParseJsonDocument(status.out);
+  ASSERT_TRUE(document.ok()) << document.error() << status.out;
   const JsonDocument& u = *ByName(*document).at("u");
   const JsonDocument* weighting = FindMember(u, "weighting");
   ASSERT_NE(weighting, nullptr) << status.out;

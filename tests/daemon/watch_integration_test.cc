@@ -60,12 +60,13 @@ TEST_F(WatchIntegration, FollowsGrowingFilesAndCheckSaysStopOnceMet) {
   const CommandResult after = Plateau({"status", Path("run.yaml")});
   EXPECT_EQ(after.exit_code, 0);
   EXPECT_NE(after.out.find("the daemon is not running"), std::string::npos);
-  Status status_of_store;
-  auto store = RunStore::OpenForReading(Path("plateau.db"), &status_of_store);
-  const auto events = store->ReadEvents(0, 10, &status_of_store);
-  ASSERT_EQ(events.size(), 2u);
-  EXPECT_EQ(events[0].kind, EventKind::kMet);
-  EXPECT_EQ(events[1].kind, EventKind::kRunMet);
+  const auto store = RunStore::OpenForReading(Path("plateau.db"));
+  ASSERT_TRUE(store.ok()) << store.error();
+  const auto events = (*store)->ReadEvents(0, 10);
+  ASSERT_TRUE(events.ok()) << events.error();
+  ASSERT_EQ(events->size(), 2u);
+  EXPECT_EQ((*events)[0].kind, EventKind::kMet);
+  EXPECT_EQ((*events)[1].kind, EventKind::kRunMet);
 }
 
 TEST_F(WatchIntegration, RestartFolderWithOverlappingTimesIsCountedOnce) {
@@ -208,8 +209,9 @@ TEST_F(WatchIntegration, KillNineAtRandomPointsEndsWithTheUninterruptedNumbers) 
     EXPECT_NEAR(actual[i], expected[i], 1e-12 * std::fabs(expected[i])) << i;
   }
   EXPECT_GE(kills, 20);
-  Status status;
-  EXPECT_TRUE(RunStore::OpenForReading(Path("plateau.db"), &status)->CheckIntegrity().ok());
+  const auto store = RunStore::OpenForReading(Path("plateau.db"));
+  ASSERT_TRUE(store.ok()) << store.error();
+  EXPECT_TRUE((*store)->CheckIntegrity().ok());
 }
 
 }  // namespace

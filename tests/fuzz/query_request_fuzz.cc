@@ -12,9 +12,10 @@ namespace plateau::fuzz {
 
 int QueryRequestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string_view line(reinterpret_cast<const char*>(data), size);
-  std::string error;
-  const auto request = plateau::ParseQueryRequest(line, &error);
-  if (!request && error.empty()) ContractBroken("query request", "refused without a reason");
+  const auto request = plateau::ParseQueryRequest(line);
+  if (!request.ok() && request.error().empty()) {
+    ContractBroken("query request", "refused without a reason");
+  }
   return 0;
 }
 

@@ -8,6 +8,7 @@
 #include <filesystem>
 #include <fstream>
 #include <sstream>
+#include <stdexcept>
 
 namespace plateau {
 namespace {
@@ -23,6 +24,13 @@ class RunStoreTest : public ::testing::Test {
     path_ = (dir_ / "plateau.db").string();
   }
   void TearDown() override { fs::remove_all(dir_); }
+
+  // The value of a store call this test needs to succeed; a failure ends the test with its message.
+  template <typename T>
+  static T Must(Result<T> result) {
+    if (!result.ok()) throw std::runtime_error(result.error());
+    return std::move(result).value();
+  }
 
   CycleRecord Cycle(std::int64_t n) {
     CycleRecord r;
@@ -67,15 +75,12 @@ class RunStoreTest : public ::testing::Test {
 };
 
 TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
-  Status status;
-  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
-  ASSERT_TRUE(store) << status.message();
+  auto store = Must(RunStore::OpenForWriting(path_, "ch420"));
   ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
   ASSERT_TRUE(store->WriteCycle(Cycle(2)).ok());
-  auto reader = RunStore::OpenForReading(path_, &status);
-  ASSERT_TRUE(reader) << status.message();
-  const auto latest = reader->ReadLatest(&status);
-  ASSERT_TRUE(latest) << status.message();
+  auto reader = Must(RunStore::OpenForReading(path_));
+  const auto latest = Must(reader->ReadLatest());
+  ASSERT_TRUE(latest);
   EXPECT_EQ(latest->run_name, "ch420");
   EXPECT_EQ(latest->cycle, 2);
   ASSERT_EQ(latest->statistics.size(), 1u);
@@ -83,7 +88,7 @@ TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
   EXPECT_EQ(latest->statistics[0].state_reason, "half-width 2 %");
   EXPECT_TRUE(std::isnan(latest->statistics[0].half_width));
   EXPECT_EQ(latest->files.at(0).offset, 2468);
-  const auto checkpoint = reader->ReadCheckpoint(&status);
+  const auto checkpoint = Must(reader->ReadCheckpoint());
   ASSERT_TRUE(checkpoint);
   EXPECT_EQ(checkpoint->cycle, 2);
   EXPECT_EQ(checkpoint->fingerprint, "fp");
@@ -91,7 +96,7 @@ TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
   ASSERT_EQ(h.size(), 4u);
   EXPECT_EQ(h[2], -3e-300);  // bit for bit
   EXPECT_TRUE(std::isnan(h[3]));
-  const auto events = reader->ReadEvents(0, 10, &status);
+  const auto events = Must(reader->ReadEvents(0, 10));
   ASSERT_EQ(events.size(), 2u);
   EXPECT_EQ(events[1].cycle, 2);
   EXPECT_EQ(events[1].value, 0.28);
@@ -99,29 +104,27 @@ TEST_F(RunStoreTest, CycleRoundTripsThroughTheStore) {
 }
 
 TEST_F(RunStoreTest, ReopeningKeepsTheDataAndTheSchema) {
-  Status status;
   {
-    auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+    auto store = Must(RunStore::OpenForWriting(path_, "ch420"));
     ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
   }
-  auto again = RunStore::OpenForWriting(path_, "ch420", &status);
-  ASSERT_TRUE(again) << status.message();
-  const auto checkpoint = again->ReadCheckpoint(&status);
+  auto again = Must(RunStore::OpenForWriting(path_, "ch420"));
+  const auto checkpoint = Must(again->ReadCheckpoint());
   ASSERT_TRUE(checkpoint);
   EXPECT_EQ(checkpoint->cycle, 1);
 }
 
 TEST_F(RunStoreTest, NewerSchemaIsRefusedWithItsVersion) {
-  Status status;
-  { auto store = RunStore::OpenForWriting(path_, "ch420", &status); }
+  { auto store = Must(RunStore::OpenForWriting(path_, "ch420")); }
   sqlite3* db = nullptr;
   sqlite3_open(path_.c_str(), &db);
   sqlite3_exec(db, "UPDATE meta SET value = '99' WHERE key = 'schema_version'", nullptr, nullptr,
                nullptr);
   sqlite3_close(db);
-  EXPECT_FALSE(RunStore::OpenForWriting(path_, "ch420", &status));
-  EXPECT_NE(status.message().find("schema version 99"), std::string::npos);
-  EXPECT_FALSE(RunStore::OpenForReading(path_, &status));
+  const auto refused = RunStore::OpenForWriting(path_, "ch420");
+  EXPECT_FALSE(refused.ok());
+  EXPECT_NE(refused.error().find("schema version 99"), std::string::npos);
+  EXPECT_FALSE(RunStore::OpenForReading(path_).ok());
 }
 
 TEST_F(RunStoreTest, ForeignDatabaseAndMissingFileAreClearErrors) {
@@ -129,32 +132,32 @@ TEST_F(RunStoreTest, ForeignDatabaseAndMissingFileAreClearErrors) {
   sqlite3_open(path_.c_str(), &db);
   sqlite3_exec(db, "CREATE TABLE results(x)", nullptr, nullptr, nullptr);
   sqlite3_close(db);
-  Status status;
-  EXPECT_FALSE(RunStore::OpenForWriting(path_, "ch420", &status));
-  EXPECT_EQ(status.message(), "store " + path_ + " is not a plateau store");
-  EXPECT_FALSE(RunStore::OpenForReading((dir_ / "none.db").string(), &status));
-  EXPECT_NE(status.message().find("unable to open"), std::string::npos);
+  const auto foreign = RunStore::OpenForWriting(path_, "ch420");
+  EXPECT_FALSE(foreign.ok());
+  EXPECT_EQ(foreign.error(), "store " + path_ + " is not a plateau store");
+  const auto missing = RunStore::OpenForReading((dir_ / "none.db").string());
+  EXPECT_FALSE(missing.ok());
+  EXPECT_NE(missing.error().find("unable to open"), std::string::npos);
 }
 
 TEST_F(RunStoreTest, DeliveriesAreMadeOnceRetriedAndGivenUp) {
-  Status status;
-  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
+  auto store = Must(RunStore::OpenForWriting(path_, "ch420"));
   ASSERT_TRUE(store->WriteCycle(Cycle(1)).ok());
-  auto due = store->DueDeliveries(2000.0, &status);
+  auto due = Must(store->DueDeliveries(2000.0));
   ASSERT_EQ(due.size(), 2u);
   EXPECT_EQ(due[0].channel, "command");
   EXPECT_EQ(due[0].event.value, 0.28);
   const std::int64_t id = due[0].event.id;
   ASSERT_TRUE(store->RecordDelivery(id, "command", true, "", 2000.0, std::nan("")).ok());
   ASSERT_TRUE(store->RecordDelivery(id, "email", false, "connection refused", 2000.0, 2010.0).ok());
-  EXPECT_TRUE(store->DueDeliveries(2005.0, &status).empty());  // the retry is not due yet
-  due = store->DueDeliveries(2010.0, &status);
+  EXPECT_TRUE(Must(store->DueDeliveries(2005.0)).empty());  // the retry is not due yet
+  due = Must(store->DueDeliveries(2010.0));
   ASSERT_EQ(due.size(), 1u);
   EXPECT_EQ(due[0].attempts, 1);
   ASSERT_TRUE(store->RecordDelivery(id, "email", false, "refused", 2010.0, std::nan("")).ok());
-  EXPECT_TRUE(store->DueDeliveries(1e12, &status).empty());
-  EXPECT_EQ(store->CountDeliveries("delivered", &status), 1);
-  EXPECT_EQ(store->CountDeliveries("failed", &status), 1);
+  EXPECT_TRUE(Must(store->DueDeliveries(1e12)).empty());
+  EXPECT_EQ(Must(store->CountDeliveries("delivered")), 1);
+  EXPECT_EQ(Must(store->CountDeliveries("failed")), 1);
 }
 
 TEST_F(RunStoreTest, VersionOneStoreIsMigratedAndKeepsItsHistory) {
@@ -176,25 +179,21 @@ TEST_F(RunStoreTest, VersionOneStoreIsMigratedAndKeepsItsHistory) {
   ASSERT_EQ(sqlite3_step(legacy), SQLITE_DONE);
   sqlite3_finalize(legacy);
   sqlite3_close(db);
-  Status status;
-  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
-  ASSERT_TRUE(store) << status.message();
-  const auto old = store->ReadEvents(0, 10, &status);
+  auto store = Must(RunStore::OpenForWriting(path_, "ch420"));
+  const auto old = Must(store->ReadEvents(0, 10));
   ASSERT_EQ(old.size(), 1u);
   EXPECT_EQ(old[0].message, "tau met its target");
   EXPECT_TRUE(std::isnan(old[0].value));  // a column the old schema did not have
-  const auto checkpoint = store->ReadCheckpoint(&status);
-  ASSERT_TRUE(checkpoint) << status.message();
+  const auto checkpoint = Must(store->ReadCheckpoint());
+  ASSERT_TRUE(checkpoint);
   EXPECT_EQ(checkpoint->items.at("history:tau"), std::vector<double>({4096.0, 5.0, -3e-300}));
   ASSERT_TRUE(store->WriteCycle(Cycle(8)).ok()) << "a migrated store takes new cycles";
-  EXPECT_EQ(store->DueDeliveries(1e12, &status).size(), 2u);
+  EXPECT_EQ(Must(store->DueDeliveries(1e12)).size(), 2u);
   EXPECT_TRUE(store->CheckIntegrity().ok());
 }
 
 TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
-  Status status;
-  auto store = RunStore::OpenForWriting(path_, "ch420", &status);
-  ASSERT_TRUE(store) << status.message();
+  auto store = Must(RunStore::OpenForWriting(path_, "ch420"));
   std::vector<double> history(5000);
   for (std::size_t i = 0; i < history.size(); ++i) history[i] = 0.5 * static_cast<double>(i);
   const auto write = [&](std::int64_t n) {
@@ -203,8 +202,8 @@ TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
     ASSERT_TRUE(store->WriteCycle(r).ok());
   };
   const auto stored = [&] {
-    auto reader = RunStore::OpenForReading(path_, &status);
-    return reader->ReadCheckpoint(&status)->items.at("history:big");
+    auto reader = Must(RunStore::OpenForReading(path_));
+    return Must(reader->ReadCheckpoint())->items.at("history:big");
   };
   const std::size_t pages =
       (5000 + RunStore::kCheckpointPageDoubles - 1) / RunStore::kCheckpointPageDoubles;
@@ -235,7 +234,7 @@ TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
   sqlite3_close(db);
 
   // A new daemon on the store writes everything once, then only changes again.
-  store = RunStore::OpenForWriting(path_, "ch420", &status);
+  store = Must(RunStore::OpenForWriting(path_, "ch420"));
   write(4);
   EXPECT_EQ(store->checkpoint_pages_written(), 5u + 1u);
   write(5);
@@ -245,13 +244,12 @@ TEST_F(RunStoreTest, CheckpointPagesAreRewrittenOnlyWhereTheyChanged) {
 
 TEST_F(RunStoreTest, ReaderNeverSeesHalfACycle) {
   // A read transaction opened between two writes keeps seeing the first write (WAL snapshot).
-  Status status;
-  auto writer = RunStore::OpenForWriting(path_, "ch420", &status);
+  auto writer = Must(RunStore::OpenForWriting(path_, "ch420"));
   ASSERT_TRUE(writer->WriteCycle(Cycle(1)).ok());
-  auto reader = RunStore::OpenForReading(path_, &status);
+  auto reader = Must(RunStore::OpenForReading(path_));
   for (std::int64_t n = 2; n < 40; ++n) {
     ASSERT_TRUE(writer->WriteCycle(Cycle(n)).ok());
-    const auto latest = reader->ReadLatest(&status);
+    const auto latest = Must(reader->ReadLatest());
     ASSERT_TRUE(latest);
     // Whatever cycle it sees, its snapshot JSON and file offset belong to that same cycle.
     EXPECT_EQ(latest->statistics.at(0).document.dump(),
