@@ -71,6 +71,17 @@ int OscillationPeriod(const std::vector<double>& rho) {
 
 }  // namespace
 
+double ParzenWindowDegreesOfFreedom(int n, int window) {
+  return window > 0 ? n / (0.539 * window) : std::numeric_limits<double>::quiet_NaN();
+}
+
+double GeyerDegreesOfFreedom(const AutocorrelationResult& r) {
+  if (r.geyer_pairs < 1) return std::numeric_limits<double>::quiet_NaN();
+  const int truncation = 2 * r.geyer_pairs - 1;
+  constexpr double kDataChosenTruncation = 1.5;  // see the header: measured, on the safe side
+  return r.length / (kDataChosenTruncation * (2.0 * truncation + 1.0));
+}
+
 double ParzenLagWindowSigma2(const AutocorrelationResult& r, int window) {
   if (window < 2 || window > static_cast<int>(r.rho.size())) return std::nan("");
   double sum = 1.0;

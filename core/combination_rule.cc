@@ -17,8 +17,8 @@ double DegreesOfFreedom(Estimator estimator, int batches) {
       return batches - 1.0;
     case Estimator::kOverlappingBatchMeans:
       return 1.5 * (batches - 1.0);
-    case Estimator::kAutocorrelation:
-    case Estimator::kLagWindow:  // the lag window's figure replaces this in Decide
+    case Estimator::kAutocorrelation:  // the evidence's figures replace these in Decide
+    case Estimator::kLagWindow:
       return kInfinity;
   }
   return kInfinity;
@@ -42,8 +42,11 @@ Decision Decide(const EstimatorEvidence& e, Estimator estimator, std::string rea
   Decision d;
   d.estimator = estimator;
   d.std_error = ErrorOf(e, estimator);
-  d.degrees_of_freedom = estimator == Estimator::kLagWindow ? e.lag_window_dof
-                                                            : DegreesOfFreedom(estimator, e.batches);
+  d.degrees_of_freedom = DegreesOfFreedom(estimator, e.batches);
+  if (estimator == Estimator::kLagWindow) d.degrees_of_freedom = e.lag_window_dof;
+  if (estimator == Estimator::kAutocorrelation && e.autocorrelation_dof > 0.0) {
+    d.degrees_of_freedom = e.autocorrelation_dof;
+  }
   d.reason = std::move(reason);
   return d;
 }

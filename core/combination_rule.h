@@ -23,6 +23,7 @@ struct EstimatorEvidence {
   int batches = 0;                  // k of the non-overlapping batch means
   double lag_window = 0.0;          // samples spanned by the Parzen window
   double lag_window_dof = 0.0;      // its equivalent degrees of freedom
+  double autocorrelation_dof = 0.0;  // those of the autocorrelation estimate (0: unknown, normal)
   double batch_length = 0.0;        // samples per batch
   double tau_autocorrelation = 0.0;
   double oscillation_period = 0.0;  // 0 when the autocorrelation does not oscillate
@@ -33,7 +34,8 @@ struct Decision {
   double std_error = 0.0;
   // Degrees of freedom of the Student t quantile that goes with the deciding estimator: k - 1 for
   // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), the equivalent
-  // degrees of freedom for the lag window, infinite (normal) for the autocorrelation estimate.
+  // degrees of freedom of the lag window and of the autocorrelation estimate (EstimatorDegrees...
+  // in autocorrelation.h); infinite (normal) when the latter is unknown.
   double degrees_of_freedom = 0.0;
   std::string reason;           // one plain sentence for the user
   // Largest / smallest of the batch-means, overlapping and autocorrelation standard errors.

@@ -194,7 +194,8 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   evidence.se_autocorrelation = e.se_autocorrelation;
   evidence.se_lag_window = e.se_lag_window;
   evidence.lag_window = e.lag_window;
-  evidence.lag_window_dof = 2.0 * blocks / (0.539 * window);
+  evidence.lag_window_dof = ParzenWindowDegreesOfFreedom(blocks, window);
+  evidence.autocorrelation_dof = GeyerDegreesOfFreedom(acf);
   evidence.batches = bm.batches;
   evidence.batch_length = e.batch_length;
   evidence.tau_autocorrelation = e.integrated_time_geyer;
@@ -203,6 +204,7 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
 
   e.std_error = e.decision.std_error;
   e.quantile = TwoSidedStudentQuantile(options.confidence, e.decision.degrees_of_freedom);
+  e.half_width_uncertainty = HalfWidthUncertainty(e.decision.degrees_of_freedom);
   e.half_width = e.quantile * e.std_error;
   e.relative_half_width =
       e.value != 0.0 ? e.half_width / std::fabs(e.value) : StatisticEstimate::kNaN;
@@ -256,8 +258,10 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
            e);
 
   if (e.effective_samples < options.minimum_effective_samples) {
-    e.warnings.push_back("only " + MessageNumber(e.effective_samples) +
-                         " effective samples: the interval itself is uncertain");
+    e.warnings.push_back(
+        "only " + MessageNumber(e.effective_samples) +
+        " effective samples: the interval itself is uncertain (the half-width is known to about ±" +
+        MessageNumber(100.0 * e.half_width_uncertainty) + " %)");
   }
   if (e.decision.disagreement > kDisagreementFactor) {
     e.warnings.push_back("estimators disagree by a factor of " + MessageNumber(e.decision.disagreement) +

@@ -32,4 +32,9 @@ double TwoSidedStudentPValue(double t, double degrees_of_freedom) {
                    boost::math::students_t_distribution<double>(degrees_of_freedom), std::fabs(t)));
 }
 
+double HalfWidthUncertainty(double degrees_of_freedom) {
+  if (!(degrees_of_freedom > 0.0)) return std::numeric_limits<double>::quiet_NaN();
+  return 1.0 / std::sqrt(2.0 * degrees_of_freedom);
+}
+
 }  // namespace plateau

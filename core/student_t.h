@@ -14,6 +14,12 @@ double TwoSidedNormalPValue(double z);
 // Two-sided p-value of a t score: P(|T| >= |t|) for T ~ t(degrees_of_freedom); NaN for dof <= 0.
 double TwoSidedStudentPValue(double t, double degrees_of_freedom);
 
+// How well a half-width is itself known: the relative standard deviation of a standard error whose
+// variance estimate has `degrees_of_freedom` (chi-square/nu has variance 2/nu; the square root halves
+// the relative spread): 1 / sqrt(2 nu), 0.16 at 20 degrees of freedom. 0 for infinitely many, NaN
+// for nu <= 0.
+double HalfWidthUncertainty(double degrees_of_freedom);
+
 }  // namespace plateau
 
 #endif  // PLATEAU_CORE_STUDENT_T_H_

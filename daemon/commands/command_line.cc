@@ -56,7 +56,7 @@ std::optional<int> ParseCommandLine(CLI::App& app, const std::vector<std::string
   return std::nullopt;
 }
 
-CLI::Validator ValueCheck(std::function<bool(const std::string&)> accept,
+CLI::Validator ValueCheck(const std::function<bool(const std::string&)>& accept,
                           const std::string& expected) {
   return CLI::Validator(
       [accept, expected](std::string& value) {

@@ -30,7 +30,7 @@ std::optional<int> ParseCommandLine(CLI::App& app, const std::vector<std::string
 
 // A check for an option's value: passes when `accept` holds, else refuses with
 // "<expected>; got '<value>'" (e.g. expected = "takes a fraction between 0 and 1").
-CLI::Validator ValueCheck(std::function<bool(const std::string&)> accept,
+CLI::Validator ValueCheck(const std::function<bool(const std::string&)>& accept,
                           const std::string& expected);
 
 // Whole text to a finite number; nullopt for anything else ("1e3" yes, "1e3x", "nan" no).

@@ -153,6 +153,8 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
     json.Null();
   }
   json.Field("decision_reason", estimated ? e.decision.reason : "");
+  json.Field("degrees_of_freedom", estimated ? e.decision.degrees_of_freedom : StatisticEstimate::kNaN);
+  json.Field("half_width_uncertainty", e.half_width_uncertainty);
   json.Field("estimators_disagree", estimated && e.decision.disagreement > kDisagreementFactor);
   json.Field("disagreement", estimated ? e.decision.disagreement : StatisticEstimate::kNaN);
   json.Field("batch_length", e.batch_length);

@@ -34,6 +34,55 @@ TEST(Autocorrelation, DirectGeyerSumEqualsTheFftOne) {
   }
 }
 
+// The spread of a sigma^2 estimate over independent replications against its stated degrees of
+// freedom: a chi-square with nu degrees of freedom has Var/E^2 = 2/nu (Priestley 1981, Sec. 6.9,
+// with the variance at frequency zero twice that elsewhere). Returns (observed Var/E^2) / (2/nu).
+template <typename Estimate>
+double SpreadOverStatedSpread(Estimate estimate, double phi = 0.5, std::size_t length = 4096) {
+  constexpr int kReplications = 400;
+  double sum = 0.0, sum_sq = 0.0, sum_dof = 0.0;
+  for (int r = 0; r < kReplications; ++r) {
+    const std::vector<double> x = testing::Ar1(length, phi, 7000 + r);
+    double dof = 0.0;
+    const double sigma2 = estimate(x, &dof);
+    sum += sigma2;
+    sum_sq += sigma2 * sigma2;
+    sum_dof += dof;
+  }
+  const double mean = sum / kReplications;
+  const double variance = (sum_sq - kReplications * mean * mean) / (kReplications - 1);
+  return (variance / (mean * mean)) / (2.0 / (sum_dof / kReplications));
+}
+
+TEST(Autocorrelation, ParzenDegreesOfFreedomMatchTheSpreadOfItsEstimate) {
+  // A window of 64 lags on 4096 values: nu = 4096 / (0.539 * 64) = 119. The ratio's own standard
+  // error over 400 replications is about 0.07; the formula without the zero-frequency factor of
+  // two would give a ratio near 2.
+  const double ratio = SpreadOverStatedSpread([](const std::vector<double>& x, double* dof) {
+    *dof = ParzenWindowDegreesOfFreedom(static_cast<int>(x.size()), 64);
+    return ParzenLagWindowSigma2(AnalyseAutocorrelation(x), 64);
+  });
+  EXPECT_GT(ratio, 0.75);
+  EXPECT_LT(ratio, 1.3);
+}
+
+TEST(Autocorrelation, GeyerDegreesOfFreedomAreOnTheSafeSide) {
+  // The data choose where Geyer's sum stops, which adds spread beyond a fixed truncation; the
+  // stated nu must not overstate how well sigma^2 is known (ratio not above 1 beyond the ratio's
+  // own noise of about 0.07), nor be far too cautious. A short, strongly correlated series is the
+  // hardest case measured (1.45 times a fixed truncation's spread).
+  const auto geyer = [](const std::vector<double>& x, double* dof) {
+    const AutocorrelationResult r = AnalyseAutocorrelation(x);
+    *dof = GeyerDegreesOfFreedom(r);
+    return r.sigma2_initial_monotone;
+  };
+  for (const auto& [phi, length] : {std::pair<double, std::size_t>{0.5, 4096}, {0.9, 1024}}) {
+    const double ratio = SpreadOverStatedSpread(geyer, phi, length);
+    EXPECT_GT(ratio, 0.5) << phi;
+    EXPECT_LT(ratio, 1.1) << phi;
+  }
+}
+
 TEST(Autocorrelation, ConstantSeriesHasZeroVarianceAndUnitTau) {
   const AutocorrelationResult r = AnalyseAutocorrelation(std::vector<double>(100, 3.25));
   EXPECT_EQ(r.gamma0, 0.0);

@@ -29,6 +29,12 @@ TEST(CombinationRule, AgreeingEstimatorsLeaveItToTheAutocorrelation) {
   EXPECT_LT(d.disagreement, kDisagreementFactor);
 }
 
+TEST(CombinationRule, TheAutocorrelationEstimateCarriesItsOwnDegreesOfFreedom) {
+  EstimatorEvidence e = Agreeing();
+  e.autocorrelation_dof = 85;
+  EXPECT_DOUBLE_EQ(CombineEstimators(e).degrees_of_freedom, 85);
+}
+
 TEST(CombinationRule, ShortBatchesHandTheDecisionToTheAutocorrelation) {
   EstimatorEvidence e = Agreeing();
   e.tau_autocorrelation = 300;  // batches of 2000 < 10 tau
