@@ -35,7 +35,7 @@ void SeriesSink::OnColumns(const std::vector<std::string>& header) {
            std::to_string(series_.source->columns().size()) + ": " +
            JoinedNames(series_.source->columns()) +
            (moved ? "; the same names at other probe locations" : "") +
-           "), as when a probe is added or moved at a restart");
+           "), as when a probe is added or moved at a restart: give it a source of its own");
   }
 }
 

@@ -83,8 +83,7 @@ class SourceTail::ReadOwner : public SeriesSinkOwner {
   }
 
   void RefuseSegment(const std::string&, const std::string& reason) override {
-    tail_.log_->error("source '{}': {}; the file is ignored: give it a source of its own",
-                      tail_.config_.name, reason);
+    tail_.log_->error("source '{}': {}; the file is ignored", tail_.config_.name, reason);
   }
 
   void ReportOverlap(const TimeOrderGate::Overlap& o, const std::string&) override {
