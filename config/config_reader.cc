@@ -5,12 +5,9 @@
 #include <cmath>
 #include <filesystem>
 #include <limits>
-#include <map>
 #include <set>
 
 namespace plateau {
-
-namespace fs = std::filesystem;
 
 std::string Join(const std::vector<std::string>& items, const std::string& last) {
   std::string out;

@@ -1,16 +1,11 @@
 #include <algorithm>
-#include <charconv>
 #include <cmath>
-#include <filesystem>
 #include <limits>
 #include <map>
-#include <set>
 
 #include "config/config_reader.h"
 
 namespace plateau {
-
-namespace fs = std::filesystem;
 
 std::optional<StatisticGroup> ConfigReader::LoadGroup(const YAML::Node& node, const RunConfig& c) {
   if (!node.IsMap()) {

@@ -1,16 +1,8 @@
 #include <algorithm>
-#include <charconv>
-#include <cmath>
-#include <filesystem>
-#include <limits>
-#include <map>
-#include <set>
 
 #include "config/config_reader.h"
 
 namespace plateau {
-
-namespace fs = std::filesystem;
 
 namespace {
 

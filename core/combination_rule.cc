@@ -11,15 +11,16 @@ namespace {
 
 constexpr double kInfinity = std::numeric_limits<double>::infinity();
 
-double DegreesOfFreedom(Estimator estimator, int batches) {
+double DegreesOfFreedom(const EstimatorEvidence& e, Estimator estimator) {
   switch (estimator) {
     case Estimator::kBatchMeans:
-      return batches - 1.0;
+      return e.batches - 1.0;
     case Estimator::kOverlappingBatchMeans:
-      return 1.5 * (batches - 1.0);
-    case Estimator::kAutocorrelation:  // the evidence's figures replace these in Decide
+      return 1.5 * (e.batches - 1.0);
+    case Estimator::kAutocorrelation:  // unknown: the normal quantile
+      return e.autocorrelation_dof > 0.0 ? e.autocorrelation_dof : kInfinity;
     case Estimator::kLagWindow:
-      return kInfinity;
+      return e.lag_window_dof;
   }
   return kInfinity;
 }
@@ -42,11 +43,7 @@ Decision Decide(const EstimatorEvidence& e, Estimator estimator, std::string rea
   Decision d;
   d.estimator = estimator;
   d.std_error = ErrorOf(e, estimator);
-  d.degrees_of_freedom = DegreesOfFreedom(estimator, e.batches);
-  if (estimator == Estimator::kLagWindow) d.degrees_of_freedom = e.lag_window_dof;
-  if (estimator == Estimator::kAutocorrelation && e.autocorrelation_dof > 0.0) {
-    d.degrees_of_freedom = e.autocorrelation_dof;
-  }
+  d.degrees_of_freedom = DegreesOfFreedom(e, estimator);
   d.reason = std::move(reason);
   return d;
 }

@@ -34,8 +34,9 @@ struct Decision {
   double std_error = 0.0;
   // Degrees of freedom of the Student t quantile that goes with the deciding estimator: k - 1 for
   // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), the equivalent
-  // degrees of freedom of the lag window and of the autocorrelation estimate (EstimatorDegrees...
-  // in autocorrelation.h); infinite (normal) when the latter is unknown.
+  // degrees of freedom of the lag window and of the autocorrelation estimate
+  // (ParzenWindowDegreesOfFreedom, GeyerDegreesOfFreedom in autocorrelation.h); infinite (normal)
+  // when the latter is unknown.
   double degrees_of_freedom = 0.0;
   std::string reason;           // one plain sentence for the user
   // Largest / smallest of the batch-means, overlapping and autocorrelation standard errors.

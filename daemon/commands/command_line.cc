@@ -47,13 +47,14 @@ std::optional<int> ParseCommandLine(CLI::App& app, const std::vector<std::string
     err << prefix << e.what() << see;
     return 2;
   }
-  // Extras are what no declaration took: an option we do not know, or one argument too many.
-  for (const std::string& extra : app.remaining()) {
-    err << prefix << (extra.rfind('-', 0) == 0 ? "unknown option " : "unexpected argument ")
-        << extra << see;
-    return 2;
-  }
-  return std::nullopt;
+  // Extras are what no declaration took: an option we do not know, or one argument too many. The
+  // first is named.
+  const std::vector<std::string> extras = app.remaining();
+  if (extras.empty()) return std::nullopt;
+  const std::string& extra = extras.front();
+  err << prefix << (extra.rfind('-', 0) == 0 ? "unknown option " : "unexpected argument ") << extra
+      << see;
+  return 2;
 }
 
 CLI::Validator ValueCheck(const std::function<bool(const std::string&)>& accept,

@@ -21,7 +21,7 @@ namespace plateau {
 
 // A series as read so far, across its segments and reads.
 struct SeriesIngest {
-  std::optional<SourceStatistics> source;    // empty until the first header (or when refused)
+  std::optional<SourceStatistics> source;    // empty until a header made it (see StartSeries)
   std::string layout_file;                   // the segment whose header set the columns
   std::vector<ProbeLocation> layout_probes;  // its probe locations, when read in this process
   std::uint64_t overlap_reported = 0;        // skipped samples already reported
