@@ -36,6 +36,7 @@ std::optional<RunConfig> ConfigReader::Load(const YAML::Node& root) {
              "warmup",
              "confirmations",
              "minimum_effective_samples",
+             "max_half_width_uncertainty",
              "drift_p_value",
              "blocks",
              "planned_end_time",

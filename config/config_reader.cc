@@ -145,7 +145,13 @@ void ConfigReader::LoadSettings(const YAML::Node& root, RunConfig& c) {
     if (auto v = Number(root["minimum_effective_samples"], "minimum_effective_samples", 0, 1e15,
                         false, "a number of samples, 0 or more")) {
       c.stop_rule.minimum_effective_samples = *v;
-      c.evaluation.minimum_effective_samples = *v;
+    }
+  }
+  if (root["max_half_width_uncertainty"]) {
+    if (auto v = Number(root["max_half_width_uncertainty"], "max_half_width_uncertainty", 0.0, 10.0,
+                        true, "a share above 0, such as 0.2 for ±20 %")) {
+      c.stop_rule.maximum_half_width_uncertainty = *v;
+      c.evaluation.maximum_half_width_uncertainty = *v;
     }
   }
   if (root["drift_p_value"]) {

@@ -1,5 +1,6 @@
 #include "core/batch_means.h"
 
+#include <algorithm>
 #include <limits>
 
 namespace plateau {
@@ -61,6 +62,13 @@ BatchMeansResult OverlappingBatchMeans(const std::vector<double>& series, int ba
   r.batch_size = m;
   r.variance_of_mean = sigma2 / n;
   return r;
+}
+
+double SecondHalfLongRunVariance(const std::vector<double>& series) {
+  const std::vector<double> tail(series.begin() + static_cast<long>(series.size() / 2), series.end());
+  const int batch = std::max(1, static_cast<int>(tail.size() / 8));
+  const BatchMeansResult obm = OverlappingBatchMeans(tail, batch);
+  return obm.variance_of_mean * static_cast<double>(tail.size());
 }
 
 }  // namespace plateau

@@ -23,6 +23,11 @@ BatchMeansResult NonOverlappingBatchMeans(const std::vector<double>& series, int
 // the mean of all n values (Meketon & Schmeiser 1984, eq. 2). Needs 1 <= m < n; otherwise NaN.
 BatchMeansResult OverlappingBatchMeans(const std::vector<double>& series, int batch_size);
 
+// Long-run variance per value (sigma^2 such that Var(mean of n values) ~ sigma^2 / n) of the
+// series' second half, by overlapping batch means an eighth of that half long: the noise level of
+// a series whose start may still carry a transient. NaN when that half has fewer than 2 values.
+double SecondHalfLongRunVariance(const std::vector<double>& series);
+
 }  // namespace plateau
 
 #endif  // PLATEAU_CORE_BATCH_MEANS_H_

@@ -74,6 +74,11 @@ std::pair<ConvergenceState, std::string> ConvergenceTracker::Judge(
                       Percent(target_->value)
                 : "half-width " + MessageNumber(e.half_width) + ", target " + MessageNumber(target_->value)};
   }
+  if (!(e.half_width_uncertainty <= settings_.maximum_half_width_uncertainty)) {
+    return {S::kConverging, "the half-width is itself known only to ±" +
+                                Percent(e.half_width_uncertainty) + ", the rule asks for ±" +
+                                Percent(settings_.maximum_half_width_uncertainty)};
+  }
   if (e.effective_samples < settings_.minimum_effective_samples) {
     return {S::kConverging, "only " + MessageNumber(e.effective_samples) +
                                 " effective samples, the rule asks for " +

@@ -11,16 +11,25 @@ enum class WarmupPolicy {
   kFixedTime,  // discard samples before warmup_time (simulated time units of the time column)
 };
 
+// How the automatic warm-up cut is found on the statistic's batch series.
+enum class WarmupDetector {
+  kMser,        // MSER alone (White 1997)
+  kMserBridge,  // MSER, then a tenth more while the bridge test rejects (Heidelberger & Welch 1983)
+  kMserDecay,   // MSER, then past the residue of a fitted exponential decay
+};
+
 struct EvaluationOptions {
   double confidence = 0.95;
   int batches = 20;  // k of the non-overlapping batch means (Schmeiser 1982: 10 to 30)
   WarmupPolicy warmup = WarmupPolicy::kAuto;
   double warmup_time = 0.0;
+  WarmupDetector warmup_detector = WarmupDetector::kMserDecay;
   // Drift is reported when Geweke's two-sided p-value falls below this. Small, because a
   // statistic is tested at every evaluation and a run has many statistics.
   double drift_p_value = 0.001;
-  // Fewer effective samples than this makes the interval itself unreliable: reported as a warning.
-  double minimum_effective_samples = 100.0;
+  // A half-width known less well than this (half_width_uncertainty) is reported as a warning; the
+  // stop rule's bound of the same name decides whether it can count as met.
+  double maximum_half_width_uncertainty = 0.2;
 };
 
 }  // namespace plateau

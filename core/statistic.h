@@ -47,7 +47,8 @@ class Statistic {
  private:
   // Number of leading closed blocks that the warm-up policy discards.
   int WarmupBlocks(const EvaluationOptions& options) const;
-  int MserWarmupBlocks() const;
+  // The automatic cut: MSER on the grouped block series, then the detector's extension.
+  int AutomaticWarmupBlocks(WarmupDetector detector) const;
   // Blocks per MSER batch: at least five samples and at most kMserBatches batches.
   std::size_t MserGroup() const;
   using BlockMeasure = std::function<double(const double* block)>;

@@ -124,7 +124,7 @@ By default every column except the time column gets its mean.)",
              o.evaluation.warmup_time = *FiniteNumber(v);
            }
          },
-         "auto (MSER-5, default), none, or a time before which samples are dropped")
+         "auto (MSER, then a fitted decay; default), none, or a time before which samples are dropped")
       ->check(ValueCheck(
           [](const std::string& v) { return v == "auto" || v == "none" || FiniteNumber(v); },
           "takes auto, none or a time in the units of the time column"))

@@ -179,9 +179,9 @@ void WriteConfig(const SeriesCatalog& catalog, const std::vector<std::string>& p
       << "store: plateau.db          # the SQLite store: snapshots, events, checkpoint\n"
       << "evaluate_every: 60         # seconds between evaluations\n"
       << "poll_every: 10             # seconds between looks at the files (inotify is sooner)\n"
-      << "warmup: auto               # MSER start-up cut; or none, or a simulated time\n"
+      << "warmup: auto               # MSER + fitted-decay start-up cut; or none, or a time\n"
       << "confirmations: 3           # evaluations in a row a target must hold to count as met\n"
-      << "minimum_effective_samples: 100\n\n"
+      << "max_half_width_uncertainty: 0.2   # the half-width itself known to ±20 % to count as met\n\n"
       << "# One source per series: a solver function's file, its restart segments in time order.\n"
       << "sources:\n";
   std::map<std::string, int> column_uses;

@@ -38,7 +38,8 @@ ReloadOutcome ApplyReload(RunConfig& running, const RunConfig& fresh) {
   running.stop_rule = fresh.stop_rule;
   running.evaluation.confidence = fresh.evaluation.confidence;
   running.evaluation.drift_p_value = fresh.evaluation.drift_p_value;
-  running.evaluation.minimum_effective_samples = fresh.evaluation.minimum_effective_samples;
+  running.evaluation.maximum_half_width_uncertainty =
+      fresh.evaluation.maximum_half_width_uncertainty;
   running.evaluate_every = fresh.evaluate_every;
   running.poll_every = fresh.poll_every;
   running.planned_end_time = fresh.planned_end_time;

@@ -13,7 +13,7 @@ namespace {
 std::string WarmupDescription(const EvaluationOptions& options) {
   switch (options.warmup) {
     case WarmupPolicy::kAuto:
-      return "automatic (MSER-5)";
+      return "automatic (MSER, then a fitted decay)";
     case WarmupPolicy::kNone:
       return "none";
     case WarmupPolicy::kFixedTime:

@@ -19,12 +19,14 @@ StatisticEstimate Estimated(double value, double half_width, std::uint64_t sampl
   e.warmup_end_time = 1.0;
   e.last_time = samples * 0.01;
   e.effective_samples = 500;
+  e.half_width_uncertainty = 0.1;  // 50 degrees of freedom
   return e;
 }
 
 ConvergenceTracker OnePercent() {
-  return ConvergenceTracker("tau", Target{Target::Kind::kRelative, 0.01, 0.95},
-                            StopRuleSettings{3, 100, 0.0});
+  StopRuleSettings rule;
+  rule.minimum_effective_samples = 100;
+  return ConvergenceTracker("tau", Target{Target::Kind::kRelative, 0.01, 0.95}, rule);
 }
 
 TEST(ConvergenceTracker, MetOnlyAfterThreeConfirmationsWithNewData) {
@@ -56,7 +58,7 @@ TEST(ConvergenceTracker, LosingTheTargetIsAnEventAndNeedsFreshConfirmations) {
   EXPECT_EQ(t.consecutive(), 0);
 }
 
-TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet) {
+TEST(ConvergenceTracker, DriftFewEffectiveSamplesUncertainHalfWidthsAndShortBatchesNeverCountAsMet) {
   ConvergenceTracker t = OnePercent();
   StatisticEstimate drifting = Estimated(2.0, 0.001, 1000);
   drifting.drift_detected = true;
@@ -66,6 +68,10 @@ TEST(ConvergenceTracker, DriftFewEffectiveSamplesAndShortBatchesNeverCountAsMet)
   few.effective_samples = 40;
   t.Update(few, 2.0);
   EXPECT_EQ(t.reason(), "only 40 effective samples, the rule asks for 100");
+  StatisticEstimate uncertain = Estimated(2.0, 0.001, 2500);
+  uncertain.half_width_uncertainty = 0.25;  // 8 degrees of freedom
+  t.Update(uncertain, 2.5);
+  EXPECT_EQ(t.reason(), "the half-width is itself known only to ±25 %, the rule asks for ±20 %");
   StatisticEstimate short_batches = Estimated(2.0, 0.001, 3000);
   short_batches.decision.batches_too_short = true;
   t.Update(short_batches, 3.0);
