@@ -21,7 +21,10 @@ DecayFit FitStartupDecay(const std::vector<double>& series, double long_run_vari
   for (double y : series) mean_y += y;
   mean_y /= static_cast<double>(n);
   std::vector<double> basis(n);
-  for (double efolding = 0.5; efolding <= 0.5 * static_cast<double>(n); efolding *= kGridRatio) {
+  const double longest = 0.5 * static_cast<double>(n);
+  for (int step = 0;; ++step) {
+    const double efolding = 0.5 * std::pow(kGridRatio, step);
+    if (efolding > longest) break;
     // exp(-(j + 1/2) / T) by repeated multiplication: one exponential per grid point.
     const double ratio = std::exp(-1.0 / efolding);
     double term = std::exp(-0.5 / efolding);
