@@ -6,6 +6,7 @@
 #include "core/batch_means.h"
 
 namespace plateau {
+
 double BridgeCramerVonMises(const std::vector<double>& series, double long_run_variance) {
   const std::size_t n = series.size();
   if (n == 0 || !(long_run_variance > 0.0)) return 0.0;
@@ -25,7 +26,7 @@ double BridgeCramerVonMises(const std::vector<double>& series, double long_run_v
 int BridgeTestTruncation(const std::vector<double>& series, int floor_cut, double max_fraction) {
   const int n = static_cast<int>(series.size());
   if (n < 16) return floor_cut;
-    const int step = std::max(1, n / 10);
+  const int step = std::max(1, n / 10);
   const int last_candidate = static_cast<int>(max_fraction * n);
   int cut = floor_cut;
   for (; cut < last_candidate; cut += step) {

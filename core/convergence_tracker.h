@@ -26,7 +26,7 @@ struct Target {
 struct StopRuleSettings {
   int confirmations = 3;  // consecutive evaluations the target must hold
   double minimum_effective_samples = 0;  // optional: n_eff below this never counts as met
-  double minimum_time = 0.0;               // simulated time averaged after the warm-up
+  double minimum_time = 0.0;  // simulated time averaged after the warm-up
   // The half-width must itself be known to within this share (half_width_uncertainty, 1/sqrt(2 nu)
   // for the deciding estimator's nu degrees of freedom): ±20 % asks for 12.5, which batch means
   // with 20 batches (19) and the other estimators reach. In the stop-rule harness ±10 % gained no

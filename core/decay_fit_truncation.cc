@@ -61,7 +61,7 @@ int DecayFitTruncation(const std::vector<double>& series, int floor_cut, double 
   const DecayFit fit = FitStartupDecay(series, long_run_variance);
   if (!fit.significant) return floor_cut;
   const int last_candidate = static_cast<int>(max_fraction * n);
-    // The fitted transient summed from the end: its mean over what a cut at d leaves.
+  // The fitted transient summed from the end: its mean over what a cut at d leaves.
   std::vector<double> tail_sum(static_cast<std::size_t>(n) + 1, 0.0);
   for (int j = n - 1; j >= 0; --j) {
     tail_sum[j] = tail_sum[j + 1] +

@@ -31,8 +31,7 @@ inline constexpr double kResidueShare = 0.1;
 DecayFit FitStartupDecay(const std::vector<double>& series, double long_run_variance);
 
 // The number of leading values to delete: at least `floor_cut` (MSER's), and when a fitted decay is
-// significant (it explains more than kDecayStrength long-run variances: far beyond what noise
-// gives, as the stationary replications of the stop-rule harness show), the smallest cut whose
+// significant (it explains more than kDecayStrength long-run variances), the smallest cut whose
 // remaining fitted bias is at most kResidueShare standard errors of the remaining mean. Never more
 // than max_fraction of the series (White's search limit). The long-run variance is estimated from
 // the second half by overlapping batch means. Series shorter than 16 values keep floor_cut.
