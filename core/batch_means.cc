@@ -1,6 +1,7 @@
 #include "core/batch_means.h"
 
 #include <algorithm>
+#include <cmath>
 #include <limits>
 
 namespace plateau {
@@ -62,6 +63,28 @@ BatchMeansResult OverlappingBatchMeans(const std::vector<double>& series, int ba
   r.batch_size = m;
   r.variance_of_mean = sigma2 / n;
   return r;
+}
+
+BatchMeansResult LugsailBatchMeans(const std::vector<double>& series, int batch_size) {
+  constexpr int kRatio = 3;  // r
+  BatchMeansResult r;
+  const int shorter = static_cast<int>(std::lround(static_cast<double>(batch_size) / kRatio));
+  if (shorter < 1 || batch_size >= static_cast<int>(series.size())) {
+    r.variance_of_mean = kNaN;
+    return r;
+  }
+  const double c = static_cast<double>(shorter) / batch_size;
+  r = OverlappingBatchMeans(series, batch_size);
+  const double short_variance = OverlappingBatchMeans(series, shorter).variance_of_mean;
+  r.variance_of_mean = (r.variance_of_mean - c * short_variance) / (1.0 - c);
+  return r;
+}
+
+double LugsailDegreesOfFreedom(int batches) {
+  constexpr double r = 3.0;
+  constexpr double c = 1.0 / r;
+  const double inflation = (1.0 + c * c / r - 2.0 * c / r) / ((1.0 - c) * (1.0 - c));
+  return 1.5 * (batches - 1.0) / inflation;
 }
 
 double SecondHalfLongRunVariance(const std::vector<double>& series) {

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/batch_means.h"
 #include "core/message_number.h"
 
 namespace plateau {
@@ -17,6 +18,8 @@ double DegreesOfFreedom(const EstimatorEvidence& e, Estimator estimator) {
       return e.batches - 1.0;
     case Estimator::kOverlappingBatchMeans:
       return 1.5 * (e.batches - 1.0);
+    case Estimator::kLugsailBatchMeans:
+      return LugsailDegreesOfFreedom(e.batches);
     case Estimator::kAutocorrelation:  // unknown: the normal quantile
       return e.autocorrelation_dof > 0.0 ? e.autocorrelation_dof : kInfinity;
     case Estimator::kLagWindow:
@@ -31,6 +34,8 @@ double ErrorOf(const EstimatorEvidence& e, Estimator estimator) {
       return e.se_batch_means;
     case Estimator::kOverlappingBatchMeans:
       return e.se_overlapping_batch_means;
+    case Estimator::kLugsailBatchMeans:
+      return e.se_lugsail_batch_means;
     case Estimator::kAutocorrelation:
       return e.se_autocorrelation;
     case Estimator::kLagWindow:
@@ -65,6 +70,8 @@ std::string_view EstimatorName(Estimator estimator) {
       return "batch_means";
     case Estimator::kOverlappingBatchMeans:
       return "overlapping_batch_means";
+    case Estimator::kLugsailBatchMeans:
+      return "lugsail_batch_means";
     case Estimator::kAutocorrelation:
       return "autocorrelation";
     case Estimator::kLagWindow:
@@ -84,6 +91,8 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
   const double batch_side = std::max(e.se_batch_means, e.se_overlapping_batch_means);
   const bool periodic = e.oscillation_period > 0.0;
   const bool short_batches = e.batch_length < kBatchesPerTau * e.tau_autocorrelation;
+  // NaN (not computable) compares false: the plain estimates decide.
+  const double lugsail = e.se_lugsail_batch_means;
 
   Decision d;
   if (std::isnan(e.se_autocorrelation) || !(e.se_autocorrelation > 0.0)) {
@@ -100,6 +109,13 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
                "the autocorrelation oscillates with a period of " + MessageNumber(e.oscillation_period) +
                    " samples and the lag window spans fewer than " + MessageNumber(kPeriodsPerWindow) +
                    " periods: the largest estimate decides");
+  } else if (short_batches && lugsail > kDisagreementFactor * e.se_autocorrelation) {
+    d = Decide(e, Estimator::kLugsailBatchMeans,
+               "batches of " + MessageNumber(e.batch_length) + " samples are shorter than " +
+                   MessageNumber(kBatchesPerTau) + " integrated times, and even corrected for "
+                   "that (lugsail) batch means exceed the autocorrelation estimate by a factor "
+                   "of " + MessageNumber(lugsail / e.se_autocorrelation) +
+                   ": slow variation beyond the autocorrelation window; the lugsail decides");
   } else if (short_batches) {
     d = Decide(e, Estimator::kAutocorrelation,
                "batches of " + MessageNumber(e.batch_length) + " samples are shorter than " +
@@ -110,10 +126,13 @@ Decision CombineEstimators(const EstimatorEvidence& e) {
     const Estimator larger = e.se_overlapping_batch_means >= e.se_batch_means
                                  ? Estimator::kOverlappingBatchMeans
                                  : Estimator::kBatchMeans;
-    d = Decide(e, larger,
+    const bool corrected = lugsail > 0.0;
+    d = Decide(e, corrected ? Estimator::kLugsailBatchMeans : larger,
                "batch means exceed the autocorrelation estimate by a factor of " +
                    MessageNumber(batch_side / e.se_autocorrelation) +
-                   ": slow variation beyond the autocorrelation window; batch means decide");
+                   ": slow variation beyond the autocorrelation window; " +
+                   (corrected ? "batch means corrected for short batches (lugsail) decide"
+                              : "batch means decide"));
   } else {
     d = Decide(e, Estimator::kAutocorrelation,
                "no known failure mode applies; the autocorrelation estimate has the smallest "

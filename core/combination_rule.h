@@ -8,9 +8,16 @@
 
 namespace plateau {
 
-enum class Estimator { kBatchMeans, kOverlappingBatchMeans, kAutocorrelation, kLagWindow };
+enum class Estimator {
+  kBatchMeans,
+  kOverlappingBatchMeans,
+  kLugsailBatchMeans,
+  kAutocorrelation,
+  kLagWindow
+};
 
-// Stable names used in JSON: batch_means, overlapping_batch_means, autocorrelation, lag_window.
+// Stable names used in JSON: batch_means, overlapping_batch_means, lugsail_batch_means,
+// autocorrelation, lag_window.
 std::string_view EstimatorName(Estimator estimator);
 
 // Standard errors of the mean of the linearised series, and the facts the rule needs. All times are
@@ -18,6 +25,7 @@ std::string_view EstimatorName(Estimator estimator);
 struct EstimatorEvidence {
   double se_batch_means = 0.0;
   double se_overlapping_batch_means = 0.0;
+  double se_lugsail_batch_means = 0.0;  // bias-corrected (LugsailBatchMeans in batch_means.h)
   double se_autocorrelation = 0.0;  // Geyer's initial monotone sequence
   double se_lag_window = 0.0;       // Parzen lag window
   int batches = 0;                  // k of the non-overlapping batch means
@@ -33,7 +41,8 @@ struct Decision {
   Estimator estimator = Estimator::kAutocorrelation;
   double std_error = 0.0;
   // Degrees of freedom of the Student t quantile that goes with the deciding estimator: k - 1 for
-  // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984), the equivalent
+  // batch means, 1.5 (k - 1) for overlapping batch means (Meketon & Schmeiser 1984),
+  // LugsailDegreesOfFreedom for the lugsail (batch_means.h), the equivalent
   // degrees of freedom of the lag window and of the autocorrelation estimate
   // (ParzenWindowDegreesOfFreedom, GeyerDegreesOfFreedom in autocorrelation.h); infinite (normal)
   // when the latter is unknown.
@@ -57,9 +66,13 @@ inline constexpr double kDisagreementFactor = 1.5;
 //     error, and batch means leak a residue of the tone (a Bartlett window); the Parzen lag window
 //     decides when it spans >= kPeriodsPerWindow periods, otherwise the largest estimate decides
 //     (nothing is known to be safe);
-//  2. batches shorter than kBatchesPerTau * tau: batch means are biased low, autocorrelation decides;
+//  2. batches shorter than kBatchesPerTau * tau: batch means are biased low, so the lugsail stands
+//     for them; it decides when it exceeds the autocorrelation estimate by more than
+//     kDisagreementFactor (slow variation beyond the autocorrelation's reach), otherwise the
+//     autocorrelation estimate decides;
 //  3. batch means above the autocorrelation estimate by more than kDisagreementFactor: slow variation
-//     beyond the autocorrelation's reach, so the larger batch-means estimate decides;
+//     beyond the autocorrelation's reach, of a scale the batches are not known to be long against,
+//     so the lugsail decides (the larger plain batch-means estimate when it has none);
 //  4. otherwise the autocorrelation estimate, which has the smallest sampling variability.
 Decision CombineEstimators(const EstimatorEvidence& evidence);
 

@@ -10,7 +10,8 @@ StatisticEstimate DeriveEstimate(const StatisticEstimate& base, std::string name
   e.name = std::move(name);
   e.value = value;
   const double factor = std::fabs(slope);
-  for (double* se : {&e.se_batch_means, &e.se_overlapping_batch_means, &e.se_autocorrelation,
+  for (double* se : {&e.se_batch_means, &e.se_overlapping_batch_means, &e.se_lugsail_batch_means,
+                     &e.se_autocorrelation,
                      &e.se_sokal, &e.se_lag_window, &e.std_error, &e.half_width}) {
     *se *= factor;
   }

@@ -117,6 +117,12 @@ int Statistic::WarmupBlocks(const EvaluationOptions& options) const {
   return 0;
 }
 
+std::vector<double> Statistic::LinearisedBlockSeries(int cut) const {
+  if (cut >= static_cast<int>(history_->block_count())) return {};
+  const std::vector<double> global = PostWarmupSummary(cut);
+  return LinearisedSeries(cut, global, formula_.Linearisation(history_->layout(), global.data()));
+}
+
 std::vector<double> Statistic::PostWarmupSummary(int cut) const {
   const MomentLayout& layout = history_->layout();
   std::vector<double> global(layout.stride());
@@ -180,6 +186,8 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   // Every estimator works on block means; Var(mean) is the same quantity whatever the block length.
   e.se_batch_means = std::sqrt(bm.variance_of_mean);
   e.se_overlapping_batch_means = std::sqrt(obm.variance_of_mean);
+  const double lugsail = LugsailBatchMeans(series, bm.batch_size).variance_of_mean;
+  e.se_lugsail_batch_means = lugsail > 0.0 ? std::sqrt(lugsail) : StatisticEstimate::kNaN;
   e.se_autocorrelation = acf.sigma2_initial_monotone > 0.0
                              ? std::sqrt(acf.sigma2_initial_monotone / blocks)
                              : StatisticEstimate::kNaN;
@@ -211,6 +219,7 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   EstimatorEvidence evidence;
   evidence.se_batch_means = e.se_batch_means;
   evidence.se_overlapping_batch_means = e.se_overlapping_batch_means;
+  evidence.se_lugsail_batch_means = e.se_lugsail_batch_means;
   evidence.se_autocorrelation = e.se_autocorrelation;
   evidence.se_lag_window = e.se_lag_window;
   evidence.lag_window = e.lag_window;

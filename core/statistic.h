@@ -44,9 +44,14 @@ class Statistic {
   // Evaluates with the data so far. Never fails: missing data shows in the estimate's state.
   StatisticEstimate Evaluate(const EvaluationOptions& options) const;
 
- private:
   // Number of leading closed blocks that the warm-up policy discards.
   int WarmupBlocks(const EvaluationOptions& options) const;
+  // The linearised block series after `cut` leading closed blocks: the series Evaluate's
+  // estimators work on (its mean is zero), for joint estimates over statistics of one source.
+  // Empty when no closed block remains.
+  std::vector<double> LinearisedBlockSeries(int cut) const;
+
+ private:
   // The automatic cut: MSER on the grouped block series, then the detector's extension.
   int AutomaticWarmupBlocks(WarmupDetector detector) const;
   // Blocks per MSER batch: at least five samples and at most kMserBatches batches.

@@ -44,6 +44,7 @@ struct StatisticEstimate {
   double value = kNaN;
   double se_batch_means = kNaN;
   double se_overlapping_batch_means = kNaN;
+  double se_lugsail_batch_means = kNaN;  // bias-corrected for short batches
   double se_autocorrelation = kNaN;  // Geyer initial monotone sequence
   double se_sokal = kNaN;            // Sokal's automatic window, a cross-check
   double se_lag_window = kNaN;       // Parzen lag window, for oscillating signals

@@ -123,6 +123,7 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
   json.BeginObject();
   json.Field("batch_means", e.se_batch_means);
   json.Field("overlapping_batch_means", e.se_overlapping_batch_means);
+  json.Field("lugsail_batch_means", e.se_lugsail_batch_means);
   json.Field("autocorrelation", e.se_autocorrelation);
   json.Field("autocorrelation_sokal", e.se_sokal);
   json.Field("lag_window", e.se_lag_window);

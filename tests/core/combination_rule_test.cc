@@ -4,6 +4,8 @@
 
 #include <cmath>
 
+#include "core/batch_means.h"
+
 namespace plateau {
 namespace {
 
@@ -73,6 +75,30 @@ TEST(CombinationRule, BatchMeansWellAboveTheAutocorrelationMeanSlowVariation) {
   const Decision d = CombineEstimators(e);
   EXPECT_EQ(d.estimator, Estimator::kBatchMeans);
   EXPECT_DOUBLE_EQ(d.degrees_of_freedom, 19);
+}
+
+TEST(CombinationRule, SlowVariationIsDecidedByBatchMeansCorrectedForTheirLength) {
+  EstimatorEvidence e = Agreeing();
+  e.se_batch_means = 1.9;
+  e.se_overlapping_batch_means = 1.7;
+  e.se_lugsail_batch_means = 2.1;
+  const Decision d = CombineEstimators(e);
+  EXPECT_EQ(d.estimator, Estimator::kLugsailBatchMeans);
+  EXPECT_DOUBLE_EQ(d.std_error, 2.1);
+  EXPECT_DOUBLE_EQ(d.degrees_of_freedom, LugsailDegreesOfFreedom(20));
+  EXPECT_NE(d.reason.find("lugsail"), std::string::npos);
+}
+
+TEST(CombinationRule, ShortBatchesWhoseCorrectionExceedsTheAutocorrelationLetTheLugsailDecide) {
+  EstimatorEvidence e = Agreeing();
+  e.tau_autocorrelation = 300;   // batches of 2000 < 10 tau: plain batch means biased low
+  e.se_batch_means = 1.2;
+  e.se_lugsail_batch_means = 1.6;  // > 1.5 x 0.98 once corrected
+  const Decision d = CombineEstimators(e);
+  EXPECT_EQ(d.estimator, Estimator::kLugsailBatchMeans);
+  EXPECT_TRUE(d.batches_too_short);
+  e.se_lugsail_batch_means = 1.3;  // within the factor: the autocorrelation keeps it
+  EXPECT_EQ(CombineEstimators(e).estimator, Estimator::kAutocorrelation);
 }
 
 TEST(CombinationRule, MissingAutocorrelationFallsBackToOverlappingBatchMeans) {
