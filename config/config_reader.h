@@ -8,6 +8,7 @@
 #include <yaml-cpp/yaml.h>
 
 #include <filesystem>
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -53,9 +54,16 @@ class ConfigReader {
   std::optional<CommandConfig> LoadCommand(const YAML::Node& node);
   void LoadMetrics(const YAML::Node& node, RunConfig& c);
   std::optional<StatisticGroup> LoadGroup(const YAML::Node& node, const RunConfig& c);
+  // The group's `joint:` rule into g (bonferroni / multivariate); multivariate members must share
+  // a source.
+  bool LoadJointRule(const YAML::Node& node, const RunConfig& c, StatisticGroup& g);
   std::optional<WallUnitsConfig> LoadWallUnits(const YAML::Node& node, const RunConfig& c);
   // A profile, and the per-point statistics it expands into (appended to c.statistics).
   std::optional<ProfileConfig> LoadProfile(const YAML::Node& node, RunConfig& c);
+  // `joint: multivariate` on a profile: one multivariate group per quantity with a target, named
+  // PROFILE/QUANTITY, over its points.
+  void AddJointProfileGroups(const ProfileConfig& p, const std::map<std::string, Target>& targets,
+                             const std::optional<Target>& target, RunConfig& c);
 
   std::string file_;
   std::filesystem::path folder_;

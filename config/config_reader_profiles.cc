@@ -12,7 +12,7 @@ std::optional<StatisticGroup> ConfigReader::LoadGroup(const YAML::Node& node, co
     Error(node, "a group must be a map with name and members");
     return std::nullopt;
   }
-  CheckKeys(node, {"name", "members", "bonferroni", "confidence", "required"}, "a group");
+  CheckKeys(node, {"name", "members", "bonferroni", "joint", "confidence", "required"}, "a group");
   StatisticGroup g;
   g.confidence = c.evaluation.confidence;
   bool ok = true;
@@ -41,6 +41,7 @@ std::optional<StatisticGroup> ConfigReader::LoadGroup(const YAML::Node& node, co
     ok = false;
   }
   if (node["bonferroni"]) ok = Flag(node["bonferroni"], "bonferroni", &g.bonferroni) && ok;
+  if (node["joint"]) ok = LoadJointRule(node["joint"], c, g) && ok;
   if (node["required"]) ok = Flag(node["required"], "required", &g.required) && ok;
   if (node["confidence"]) {
     auto v = Number(node["confidence"], "confidence", 0.0, 0.999999, true,
@@ -49,6 +50,39 @@ std::optional<StatisticGroup> ConfigReader::LoadGroup(const YAML::Node& node, co
     if (v) g.confidence = *v;
   }
   return ok ? std::optional<StatisticGroup>(g) : std::nullopt;
+}
+
+bool ConfigReader::LoadJointRule(const YAML::Node& node, const RunConfig& c, StatisticGroup& g) {
+  const std::string rule = Text(node, "joint").value_or("");
+  if (rule == "bonferroni") {
+    g.bonferroni = true;
+  } else if (rule == "multivariate") {
+    g.multivariate = true;
+  } else if (rule != "separate") {
+    Error(node, "joint must be separate (each member at the group's confidence), bonferroni or "
+                "multivariate (one confidence region over the members), not '" + rule + "'");
+    return false;
+  }
+  if (g.multivariate && g.bonferroni) {
+    Error(node, "group '" + g.name + "' is either bonferroni or joint: multivariate, not both");
+    return false;
+  }
+  if (!g.multivariate) return true;
+  // The joint region needs the members' samples from the same rows.
+  std::string first_source;
+  for (const std::string& m : g.members) {
+    const auto s = std::find_if(c.statistics.begin(), c.statistics.end(),
+                                [&](const StatisticConfig& x) { return x.request.name == m; });
+    if (s == c.statistics.end()) continue;  // reported with the members
+    if (first_source.empty()) first_source = s->source;
+    if (s->source != first_source) {
+      Error(node, "group '" + g.name + "' is joint: multivariate, so its members must come from "
+                  "one source; '" + m + "' comes from '" + s->source + "', '" + g.members.front() +
+                  "' from '" + first_source + "'");
+      return false;
+    }
+  }
+  return true;
 }
 
 std::optional<WallUnitsConfig> ConfigReader::LoadWallUnits(const YAML::Node& node,
@@ -142,7 +176,7 @@ std::optional<ProfileConfig> ConfigReader::LoadProfile(const YAML::Node& node, R
   }
   CheckKeys(node,
             {"name", "source", "positions", "wall_at", "columns", "first_index", "quantities",
-             "target", "targets", "reference", "momentum_balance"},
+             "target", "targets", "reference", "momentum_balance", "joint"},
             "a profile");
   ProfileConfig p;
   bool ok = true;
@@ -246,6 +280,17 @@ std::optional<ProfileConfig> ConfigReader::LoadProfile(const YAML::Node& node, R
   }
   if (node["momentum_balance"])
     ok = Flag(node["momentum_balance"], "momentum_balance", &p.momentum_balance) && ok;
+  bool joint = false;
+  if (const YAML::Node rule = node["joint"]) {
+    const std::string text = Text(rule, "joint").value_or("");
+    joint = text == "multivariate";
+    if (!joint && text != "separate") {
+      Error(rule, "a profile's joint must be separate (each point on its own) or multivariate "
+                  "(one confidence region over the points of each quantity with a target), not '" +
+                      text + "'");
+      ok = false;
+    }
+  }
   if (const YAML::Node reference = node["reference"]) {
     if (!reference.IsMap()) {
       Error(reference, "reference must map quantities to files, such as {U: dns/u_plus.dat}");
@@ -289,7 +334,24 @@ std::optional<ProfileConfig> ConfigReader::LoadProfile(const YAML::Node& node, R
       c.statistics.push_back(std::move(s));
     }
   }
+  if (joint) AddJointProfileGroups(p, targets, target, c);
   return p;
+}
+
+void ConfigReader::AddJointProfileGroups(const ProfileConfig& p,
+                                         const std::map<std::string, Target>& targets,
+                                         const std::optional<Target>& target, RunConfig& c) {
+  for (const std::string& q : p.quantities) {
+    if (targets.count(q) == 0 && !target) continue;  // monitored: nothing to stop on
+    StatisticGroup g;
+    g.name = p.name + "/" + q;
+    g.multivariate = true;
+    g.confidence = c.evaluation.confidence;
+    for (std::size_t i = 0; i < p.positions.size(); ++i) {
+      g.members.push_back(p.name + "[" + std::to_string(i) + "]/" + q);
+    }
+    c.groups.push_back(std::move(g));
+  }
 }
 
 }  // namespace plateau

@@ -117,9 +117,11 @@ JointRegion EvaluateJointRegion(const std::vector<JointRegionMember>& members,
   }
   region.reason = "joint " + MessageNumber(100.0 * options.confidence) + " % region of " +
                   std::to_string(p) + " members: " + MessageNumber(region.volume_ratio) +
-                  " of the targets' size; the run needs " +
-                  MessageNumber(region.joint_time_factor) + "× its present averaging, " +
-                  MessageNumber(region.bonferroni_time_factor) + "× under Bonferroni";
+                  " of the targets' size; it needs " + MessageNumber(region.joint_time_factor) +
+                  " of the present averaging, Bonferroni " +
+                  MessageNumber(region.bonferroni_time_factor) + " (" +
+                  MessageNumber(region.bonferroni_time_factor / region.joint_time_factor) +
+                  "× as long)";
   return region;
 }
 

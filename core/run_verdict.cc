@@ -29,8 +29,10 @@ std::vector<double> JudgedConfidences(const std::vector<std::string>& names,
                                       const std::vector<StatisticGroup>& groups) {
   std::vector<double> judged = own;
   for (const StatisticGroup& g : groups) {
-    if (!g.bonferroni || g.members.empty()) continue;
-    const double member = BonferroniMemberConfidence(g.confidence, g.members.size());
+    if (!(g.bonferroni || g.multivariate) || g.members.empty()) continue;
+    const double member = g.multivariate
+                              ? g.confidence
+                              : BonferroniMemberConfidence(g.confidence, g.members.size());
     for (std::size_t i = 0; i < names.size(); ++i) {
       if (IsMember(g, names[i])) judged[i] = std::max(judged[i], member);
     }
@@ -38,8 +40,8 @@ std::vector<double> JudgedConfidences(const std::vector<std::string>& names,
   return judged;
 }
 
-GroupStanding JudgeGroup(const StatisticGroup& group,
-                         const std::vector<TargetStanding>& statistics) {
+GroupStanding JudgeGroup(const StatisticGroup& group, const std::vector<TargetStanding>& statistics,
+                         const JointStanding* joint) {
   GroupStanding standing;
   standing.members = static_cast<int>(group.members.size());
   standing.member_confidence =
@@ -66,11 +68,17 @@ GroupStanding JudgeGroup(const StatisticGroup& group,
     standing.reason += "; " + first_unmet->name + " is " + first_unmet->state + ": " +
                        first_unmet->state_reason;
   }
+  if (group.multivariate) {
+    const bool small_enough = joint != nullptr && joint->small_enough;
+    standing.met = standing.met && small_enough;
+    standing.reason += "; " + (joint != nullptr ? joint->reason : std::string("no joint region yet"));
+    if (!small_enough) standing.remaining_time = kNaN;  // the members' times do not bound it
+  }
   return standing;
 }
 
-bool RunMet(const std::vector<TargetStanding>& statistics,
-            const std::vector<StatisticGroup>& groups) {
+bool RunMet(const std::vector<TargetStanding>& statistics, const std::vector<StatisticGroup>& groups,
+            const std::vector<GroupStanding>& group_standings) {
   int judged = 0;
   for (const TargetStanding& s : statistics) {
     if (!s.has_target) continue;
@@ -80,10 +88,10 @@ bool RunMet(const std::vector<TargetStanding>& statistics,
     ++judged;
     if (!s.met) return false;
   }
-  for (const StatisticGroup& g : groups) {
-    if (!g.required) continue;
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    if (!groups[i].required) continue;
     ++judged;
-    if (!JudgeGroup(g, statistics).met) return false;
+    if (i >= group_standings.size() || !group_standings[i].met) return false;
   }
   return judged > 0;
 }

@@ -17,6 +17,15 @@ struct StatisticGroup {
   bool bonferroni = false;
   double confidence = 0.95;  // of the group as a whole
   bool required = true;      // the run waits for it
+  // `joint: multivariate`: members judged at the group's confidence, and the group met only when
+  // their joint region is small enough too (core/joint_region.h); exclusive with bonferroni.
+  bool multivariate = false;
+};
+
+// What a multivariate group's joint region says, for the verdict.
+struct JointStanding {
+  bool small_enough = false;
+  std::string reason;
 };
 
 // One statistic as the verdict sees it.
@@ -50,12 +59,15 @@ std::vector<double> JudgedConfidences(const std::vector<std::string>& names,
                                       const std::vector<StatisticGroup>& groups);
 
 // A group's standing from its members' (members missing from `statistics` count as unmet and
-// unknown).
-GroupStanding JudgeGroup(const StatisticGroup& group, const std::vector<TargetStanding>& statistics);
+// unknown); a multivariate group also needs its `joint` standing (unmet without one), whose reason
+// ends the group's.
+GroupStanding JudgeGroup(const StatisticGroup& group, const std::vector<TargetStanding>& statistics,
+                         const JointStanding* joint = nullptr);
 
 // The run is met when every required group is met and every statistic with a target outside any
-// group is, and at least one of those exists.
-bool RunMet(const std::vector<TargetStanding>& statistics, const std::vector<StatisticGroup>& groups);
+// group is, and at least one of those exists. `group_standings` are the groups', in their order.
+bool RunMet(const std::vector<TargetStanding>& statistics, const std::vector<StatisticGroup>& groups,
+            const std::vector<GroupStanding>& group_standings);
 
 // The run's remaining simulated time: the largest over the statistics with a target (0 for met
 // ones); NaN when any of them is unknown or none has a target.

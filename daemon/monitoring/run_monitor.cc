@@ -156,17 +156,35 @@ SnapshotRow RunMonitor::Snapshot(TrackedStatistic& t, double wall_time,
   return std::move(evaluation.row);
 }
 
-SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g,
-                                      const std::vector<TargetStanding>& standings,
-                                      double wall_time) const {
-  const GroupStanding standing = JudgeGroup(g, standings);
+JointRegion RunMonitor::JointRegionOf(const StatisticGroup& group,
+                                      const std::vector<StatisticEstimate>& estimates,
+                                      const std::vector<SnapshotRow>& rows) const {
+  std::vector<JointRegionMember> members;
+  for (const std::string& name : group.members) {
+    const auto t = std::find_if(tracked_.begin(), tracked_.end(),
+                                [&](const TrackedStatistic& x) { return x.name() == name; });
+    const std::size_t i = static_cast<std::size_t>(t - tracked_.begin());
+    if (t == tracked_.end() || t->statistic() == nullptr) {
+      JointRegion none;
+      none.reason = "no joint region yet: " + name + " has no data";
+      return none;
+    }
+    members.push_back({t->statistic(), &estimates[i], rows[i].target_half_width});
+  }
+  EvaluationOptions options = config_.evaluation;
+  options.confidence = group.confidence;
+  return EvaluateJointRegion(members, options);
+}
+
+SnapshotRow RunMonitor::GroupSnapshot(const StatisticGroup& g, const GroupStanding& standing,
+                                      const JointRegion* region, double wall_time) const {
   SnapshotRow row = BlankRow(g.name, RowKind::kGroup);
   row.confidence = g.confidence;
   row.state = standing.met ? ConvergenceState::kMet : ConvergenceState::kConverging;
   row.state_reason = standing.reason;
   row.remaining_time = standing.remaining_time;
   row.remaining_wall = WallSecondsAt(row.remaining_time, rate_.PerHour());
-  row.document = GroupDocument(g, standing, row, wall_time);
+  row.document = GroupDocument(g, standing, region, row, wall_time);
   return row;
 }
 
@@ -199,10 +217,19 @@ Status RunMonitor::Evaluate(double wall_time) {
     entries.push_back({&tracked_[i].config(), &estimates[i], &record.snapshots[i]});
   }
   for (SnapshotRow& row : summaries_->Rows(entries)) record.snapshots.push_back(std::move(row));
+  std::vector<GroupStanding> group_standings;
   for (const StatisticGroup& g : config_.groups) {
-    record.snapshots.push_back(GroupSnapshot(g, standings, wall_time));
+    std::optional<JointRegion> region;
+    std::optional<JointStanding> joint;
+    if (g.multivariate) {
+      region = JointRegionOf(g, estimates, record.snapshots);
+      joint = JointStanding{region->small_enough, region->reason};
+    }
+    group_standings.push_back(JudgeGroup(g, standings, joint ? &*joint : nullptr));
+    record.snapshots.push_back(
+        GroupSnapshot(g, group_standings.back(), region ? &*region : nullptr, wall_time));
   }
-  const bool run_met = RunMet(standings, config_.groups);
+  const bool run_met = RunMet(standings, config_.groups, group_standings);
   if (run_met != run_met_) {
     events.push_back(MakeEvent(run_met ? EventKind::kRunMet : EventKind::kRunLost, "",
                                run_met ? "every target of run " + config_.run_name +

@@ -15,6 +15,7 @@
 
 #include "config/run_config.h"
 #include "core/input_health.h"
+#include "core/joint_region.h"
 #include "core/progress_rate.h"
 #include "core/run_verdict.h"
 #include "core/status.h"
@@ -70,8 +71,13 @@ class RunMonitor {
   // its stop rule's events to `events`.
   SnapshotRow Snapshot(TrackedStatistic& t, double wall_time, std::vector<EventRow>& events,
                        StatisticEstimate* estimate);
-  SnapshotRow GroupSnapshot(const StatisticGroup& group, const std::vector<TargetStanding>& standings,
-                            double wall_time) const;
+  SnapshotRow GroupSnapshot(const StatisticGroup& group, const GroupStanding& standing,
+                            const JointRegion* region, double wall_time) const;
+  // A multivariate group's joint region from its members' estimates and rows of this cycle
+  // (`estimates` and `rows` in the order of tracked_).
+  JointRegion JointRegionOf(const StatisticGroup& group,
+                            const std::vector<StatisticEstimate>& estimates,
+                            const std::vector<SnapshotRow>& rows) const;
   // Per statistic, the confidence it is judged at (Bonferroni groups make it stricter).
   void AssignConfidences();
   // An event with the details alerts need and the channels that take its kind.

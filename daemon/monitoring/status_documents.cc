@@ -94,8 +94,28 @@ JsonDocument StatisticDocument(const StatisticEstimate& e, const StatisticConfig
   return json.TakeDocument();
 }
 
+namespace {
+
+void WriteJointRegion(JsonWriter& json, const JointRegion& r) {
+  json.Key("joint_region");
+  json.BeginObject();
+  json.Field("available", r.available);
+  json.Field("small_enough", r.small_enough);
+  json.Field("reason", r.reason);
+  json.Field("batches", r.batches);
+  json.Field("batch_length", r.batch_length);
+  json.Field("volume_ratio", r.volume_ratio);
+  json.Field("members_ratio", r.members_ratio);
+  json.Field("bonferroni_ratio", r.bonferroni_ratio);
+  json.Field("time_factor", r.joint_time_factor);
+  json.Field("bonferroni_time_factor", r.bonferroni_time_factor);
+  json.EndObject();
+}
+
+}  // namespace
+
 JsonDocument GroupDocument(const StatisticGroup& g, const GroupStanding& standing,
-                           const SnapshotRow& row, double wall_time) {
+                           const JointRegion* region, const SnapshotRow& row, double wall_time) {
   JsonWriter json;
   json.BeginObject();
   json.Field("name", g.name);
@@ -109,8 +129,10 @@ JsonDocument GroupDocument(const StatisticGroup& g, const GroupStanding& standin
   json.Field("state_reason", row.state_reason);
   json.Field("required", g.required);
   json.Field("bonferroni", g.bonferroni);
+  json.Field("joint", g.multivariate ? "multivariate" : g.bonferroni ? "bonferroni" : "separate");
   json.Field("confidence", g.confidence);
   json.Field("member_confidence", standing.member_confidence);
+  if (region != nullptr) WriteJointRegion(json, *region);
   WriteTimeToTarget(json, row.remaining_time, row.remaining_wall, wall_time);
   json.EndObject();
   return json.TakeDocument();

@@ -8,6 +8,7 @@
 
 #include "config/run_config.h"
 #include "core/convergence_tracker.h"
+#include "core/joint_region.h"
 #include "core/reference_check.h"
 #include "core/run_verdict.h"
 #include "core/source_statistics.h"
@@ -25,9 +26,10 @@ JsonDocument StatisticDocument(const StatisticEstimate& e, const StatisticConfig
                                const SourceStatistics* source, double flow_through_time,
                                double wall_time);
 
-// One group: its members, how many are met, the Bonferroni member confidence.
+// One group: its members, how many are met, its joint rule (separate, bonferroni with the member
+// confidence, multivariate with its region; `region` nullptr for the others).
 JsonDocument GroupDocument(const StatisticGroup& group, const GroupStanding& standing,
-                           const SnapshotRow& row, double wall_time);
+                           const JointRegion* region, const SnapshotRow& row, double wall_time);
 
 }  // namespace plateau
 

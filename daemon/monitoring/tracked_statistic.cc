@@ -13,9 +13,11 @@ TrackedStatistic::TrackedStatistic(StatisticConfig* config, SourceTail* tail,
                                    const StopRuleSettings& settings)
     : config_(config), tail_(tail), tracker_(config->request.name, config->target, settings) {}
 
+const Statistic* TrackedStatistic::statistic() const { return tail_->Find(name()); }
+
 std::optional<StatisticEstimate> TrackedStatistic::EstimateAt(
     const EvaluationOptions& options) const {
-  const Statistic* statistic = tail_->Find(name());
+  const Statistic* statistic = this->statistic();
   if (statistic == nullptr) return std::nullopt;
   return statistic->Evaluate(options);
 }

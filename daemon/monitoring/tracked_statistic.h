@@ -39,6 +39,8 @@ class TrackedStatistic {
   // remaining time into wall-clock seconds; `estimate_of` gives a reference statistic's estimate.
   Evaluation Evaluate(const EvaluationOptions& options, double wall_time, double progress_rate,
                       double flow_through_time, const EstimateOf& estimate_of);
+  // The statistic its source feeds; nullptr before its source has it.
+  const Statistic* statistic() const;
   // Its estimate at `options` without advancing anything; nullopt before its source has it.
   std::optional<StatisticEstimate> EstimateAt(const EvaluationOptions& options) const;
 

@@ -82,6 +82,12 @@ std::string WeightingLines(const LatestView& v) {
   return out;
 }
 
+// How well the half-width itself is known, "±8 %" (the document's half_width_uncertainty).
+std::string HalfWidthUncertaintyCell(const SnapshotRow& s) {
+  const double u = NumberOr(s.document, "half_width_uncertainty");
+  return std::isnan(u) || std::isnan(s.half_width) ? "-" : "±" + PrintfNumber("%.2g", 100.0 * u) + " %";
+}
+
 }  // namespace
 
 std::string StatusTable(const LatestView& v, const StatusContext& c) {
@@ -94,6 +100,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
   TextTable table({{"statistic", A::kLeft},
                    {"value", A::kRight},
                    {"± half-width", A::kRight},
+                   {"known to", A::kRight},
                    {"conf.", A::kRight},
                    {"relative", A::kRight},
                    {"target", A::kRight},
@@ -111,7 +118,7 @@ std::string StatusTable(const LatestView& v, const StatusContext& c) {
     const std::string neff = PrintfNumber("%.0f", s.effective_samples);
     const bool estimated = !std::isnan(s.half_width);
     table.AddRow({s.statistic, FormatValue(s.value), FormatHalfWidth(s.half_width),
-                  FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
+                  HalfWidthUncertaintyCell(s), FormatPercent(s.confidence), FormatPercent(s.relative_half_width), TargetCell(s),
                   estimated ? tau : "-",
                   estimated ? FormatValue(s.integral_time_scale) : "-", estimated ? neff : "-",
                   FormatValue(s.warmup_end_time),

@@ -63,20 +63,28 @@ TEST(RunVerdict, AGroupNamesItsFirstUnmetMemberAndWaitsForTheSlowest) {
   EXPECT_DOUBLE_EQ(all.remaining_time, 0.0);
 }
 
+// The run's verdict with each group judged on the same standings.
+bool RunMetJudgingGroups(const std::vector<TargetStanding>& statistics,
+                         const std::vector<StatisticGroup>& groups) {
+  std::vector<GroupStanding> standings;
+  for (const StatisticGroup& g : groups) standings.push_back(JudgeGroup(g, statistics));
+  return RunMet(statistics, groups, standings);
+}
+
 TEST(RunVerdict, TheRunWaitsForUngroupedTargetsAndRequiredGroupsOnly) {
   const std::vector<StatisticGroup> groups = {
       {"walls", {"tau_lower", "tau_upper"}, true, 0.95, true},
       {"optional", {"cl"}, false, 0.95, false}};
   // An unmet member of a required group holds the run; an unmet member of an optional one does not.
-  EXPECT_FALSE(RunMet({Met("cd"), Met("tau_lower"), Converging("tau_upper", 1.0),
+  EXPECT_FALSE(RunMetJudgingGroups({Met("cd"), Met("tau_lower"), Converging("tau_upper", 1.0),
                        Converging("cl", 1.0)},
                       groups));
-  EXPECT_TRUE(RunMet({Met("cd"), Met("tau_lower"), Met("tau_upper"), Converging("cl", 1.0)}, groups));
+  EXPECT_TRUE(RunMetJudgingGroups({Met("cd"), Met("tau_lower"), Met("tau_upper"), Converging("cl", 1.0)}, groups));
   // An ungrouped target holds it; a statistic without a target never does.
-  EXPECT_FALSE(RunMet({Converging("cd", 1.0), Met("tau_lower"), Met("tau_upper")}, groups));
-  EXPECT_TRUE(RunMet({Met("cd"), Monitored("k"), Met("tau_lower"), Met("tau_upper")}, groups));
+  EXPECT_FALSE(RunMetJudgingGroups({Converging("cd", 1.0), Met("tau_lower"), Met("tau_upper")}, groups));
+  EXPECT_TRUE(RunMetJudgingGroups({Met("cd"), Monitored("k"), Met("tau_lower"), Met("tau_upper")}, groups));
   // Nothing to judge: not met (a run without targets cannot be declared done).
-  EXPECT_FALSE(RunMet({Monitored("k")}, {}));
+  EXPECT_FALSE(RunMetJudgingGroups({Monitored("k")}, {}));
 }
 
 TEST(RunVerdict, RemainingTimeIsTheSlowestTargetsOrUnknown) {
@@ -86,6 +94,25 @@ TEST(RunVerdict, RemainingTimeIsTheSlowestTargetsOrUnknown) {
   EXPECT_TRUE(std::isnan(RunRemainingTime({Converging("b", 4.0), Converging("c", kNaN)})));
   EXPECT_TRUE(std::isnan(RunRemainingTime({Monitored("d")})));
   EXPECT_DOUBLE_EQ(RunRemainingTime({Met("a")}), 0.0);
+}
+
+TEST(RunVerdict, AMultivariateGroupNeedsItsJointRegionAndJudgesMembersAtItsOwnConfidence) {
+  StatisticGroup line{"line U", {"u0", "u1"}, false, 0.95, true};
+  line.multivariate = true;
+  const std::vector<double> judged = JudgedConfidences({"u0", "u1", "cd"}, {0.9, 0.99, 0.9}, {line});
+  EXPECT_DOUBLE_EQ(judged[0], 0.95);  // raised to the group's, not Bonferroni's 0.975
+  EXPECT_DOUBLE_EQ(judged[1], 0.99);
+  EXPECT_DOUBLE_EQ(judged[2], 0.9);
+  const std::vector<TargetStanding> both_met = {Met("u0"), Met("u1")};
+  EXPECT_FALSE(JudgeGroup(line, both_met).met);  // no region evaluated
+  const JointStanding wide{false, "joint region 1.3 of the targets' size"};
+  const GroupStanding not_yet = JudgeGroup(line, both_met, &wide);
+  EXPECT_FALSE(not_yet.met);
+  EXPECT_EQ(not_yet.reason, "2 of 2 members met; joint region 1.3 of the targets' size");
+  EXPECT_TRUE(std::isnan(not_yet.remaining_time));
+  const JointStanding small{true, "small"};
+  EXPECT_TRUE(JudgeGroup(line, both_met, &small).met);
+  EXPECT_FALSE(JudgeGroup(line, {Met("u0"), Converging("u1", 2.0)}, &small).met);
 }
 
 }  // namespace
