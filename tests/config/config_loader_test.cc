@@ -156,6 +156,60 @@ TEST(ConfigLoader, GroupsNameTheirMembersWhichNeedTargets) {
   EXPECT_NE(e[1].find("member 'rms(u)' has no target"), std::string::npos);
 }
 
+TEST(ConfigLoader, AGroupCanStopOnOneJointRegionOverMembersOfOneSource) {
+  std::vector<ConfigError> errors;
+  const std::string group = "groups:\n  - name: wall\n    members: [tau_lower, \"cov(u,v)\"]\n";
+  const auto c = ParseRunConfig(std::string(kValid) + group + "    joint: multivariate\n",
+                                "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  EXPECT_TRUE(c->groups.at(0).multivariate);
+  EXPECT_FALSE(c->groups.at(0).bonferroni);
+  const auto bonferroni = ParseRunConfig(std::string(kValid) + group + "    joint: bonferroni\n",
+                                         "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(bonferroni.has_value());
+  EXPECT_TRUE(bonferroni->groups.at(0).bonferroni);
+
+  auto e = Errors(std::string(kValid) + group + "    joint: jointly\n");
+  ASSERT_EQ(e.size(), 1u);
+  EXPECT_NE(e[0].find("joint must be separate"), std::string::npos) << e[0];
+  e = Errors(std::string(kValid) + group + "    joint: multivariate\n    bonferroni: true\n");
+  ASSERT_EQ(e.size(), 1u);
+  EXPECT_NE(e[0].find("either bonferroni or joint: multivariate"), std::string::npos) << e[0];
+}
+
+TEST(ConfigLoader, MultivariateMembersFromTwoSourcesAreNamed) {
+  const auto e = Errors(
+      "run: r\nsources:\n  - {name: wall, files: w.dat}\n  - {name: forces, files: f.dat}\n"
+      "statistics:\n  - {name: tau, source: wall, kind: mean, columns: [tau], target: {relative: "
+      "0.01}}\n  - {name: cd, source: forces, kind: mean, columns: [cd], target: {relative: "
+      "0.01}}\ngroups:\n  - {name: g, members: [tau, cd], joint: multivariate}\n");
+  ASSERT_EQ(e.size(), 1u);
+  EXPECT_NE(e[0].find("'cd' comes from 'forces', 'tau' from 'wall'"), std::string::npos) << e[0];
+}
+
+TEST(ConfigLoader, AJointProfileMakesOneGroupPerQuantityWithATarget) {
+  std::vector<ConfigError> errors;
+  const auto c = ParseRunConfig(
+      std::string(kValid) +
+          "profiles:\n  - name: line\n    positions: [0.001, 0.002, 0.004]\n"
+          "    columns: {u: \"u{i}\", v: \"v{i}\", w: \"w{i}\"}\n"
+          "    quantities: [U, uv, k]\n    targets: {U: {relative: 0.02}, k: {relative: 0.1}}\n"
+          "    joint: multivariate\n",
+      "/runs/ch420/run.yaml", &errors);
+  ASSERT_TRUE(c.has_value()) << errors.front().ToString();
+  ASSERT_EQ(c->groups.size(), 2u);  // uv has no target: monitored, no group
+  EXPECT_EQ(c->groups[0].name, "line/U");
+  EXPECT_EQ(c->groups[0].members,
+            (std::vector<std::string>{"line[0]/U", "line[1]/U", "line[2]/U"}));
+  EXPECT_TRUE(c->groups[0].multivariate);
+  EXPECT_EQ(c->groups[1].name, "line/k");
+  const auto e = Errors(std::string(kValid) +
+                        "profiles:\n  - name: line\n    positions: [0.001, 0.002]\n"
+                        "    columns: {u: \"u{i}\", v: \"v{i}\", w: \"w{i}\"}\n    joint: yes\n");
+  ASSERT_EQ(e.size(), 1u);
+  EXPECT_NE(e[0].find("a profile's joint must be separate"), std::string::npos) << e[0];
+}
+
 TEST(ConfigLoader, ProfileExpandsIntoPointStatisticsSharingAHistoryPerPoint) {
   std::vector<ConfigError> errors;
   const auto c = ParseRunConfig(

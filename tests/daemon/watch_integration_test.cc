@@ -249,5 +249,33 @@ TEST_F(WatchIntegration, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGet
   EXPECT_NE(table.out.find("BIAS"), std::string::npos);
 }
 
+TEST_F(WatchIntegration, AMultivariateGroupStopsOnItsJointRegionAndSaysWhatBonferroniWouldNeed) {
+  // x (mean 10) and y (mean -3) of one source, each judged at the group's 95 %, and jointly by
+  // one region (core/joint_region.h).
+  WriteConfig("{relative: 0.01}\n    name: x",
+              "  - kind: mean\n    columns: [y]\n    name: y\n    target: {relative: 0.05}\n"
+              "groups:\n  - name: both\n    members: [x, y]\n    joint: multivariate\n");
+  const ProbeRows rows(16000);
+  Append("run1/probe.dat", "# time x y\n");
+  WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
+  for (std::size_t from = 0; from < rows.size(); from += 2000) {
+    Append("run1/probe.dat", rows.Rows(from, from + 2000));
+    WaitFor([&] { return Samples() == static_cast<std::int64_t>(from + 2000); }, 10);
+  }
+  ASSERT_TRUE(WaitFor([&] { return Plateau({"check", "--stat", "both", Path("run.yaml")}).exit_code == 0; },
+                      10))
+      << Plateau({"status", Path("run.yaml")}).out;
+  const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
+  EXPECT_NE(json.out.find("\"joint\":\"multivariate\""), std::string::npos) << json.out;
+  EXPECT_NE(json.out.find("\"joint_region\":{\"available\":true,\"small_enough\":true"),
+            std::string::npos);
+  EXPECT_EQ(json.out.find("\"confidence\":0.975"), std::string::npos);  // not Bonferroni's
+  const testing::CommandResult table = Plateau({"status", Path("run.yaml")});
+  EXPECT_NE(table.out.find("group both: met, 2 of 2 members met; joint 95 % region of 2 members"),
+            std::string::npos)
+      << table.out;
+  EXPECT_NE(table.out.find("× as long)"), std::string::npos);
+}
+
 }  // namespace
 }  // namespace plateau
