@@ -71,6 +71,7 @@ JointRegion EvaluateJointRegion(const std::vector<JointRegionMember>& members,
     longest_tau = std::max(longest_tau, m.estimate->integrated_time);
   }
   std::vector<std::vector<double>> series;
+  series.reserve(members.size());
   for (const JointRegionMember& m : members) series.push_back(m.statistic->LinearisedBlockSeries(cut));
   const int batches = std::max(options.batches, p + kJointExtraBatches);
   const MultivariateBatchMeansResult mbm = MultivariateBatchMeans(series, batches);

@@ -380,7 +380,12 @@ TEST(ConfigLoader, ShippedExampleIsValid) {
   EXPECT_EQ(c->statistics.size(), 7u + 1u + 6u * 6u);
   EXPECT_EQ(c->statistics[6].request.name, "m3(u,u,v)");
   EXPECT_EQ(c->statistics[7].request.name, "tau_w - reference");
-  EXPECT_EQ(c->groups.at(0).members.size(), 2u);
+  // The joint profile's six quantities all have targets: six groups of six points, then walls.
+  ASSERT_EQ(c->groups.size(), 6u + 1u);
+  EXPECT_EQ(c->groups.at(0).name, "line/U");
+  EXPECT_EQ(c->groups.at(0).members.size(), 6u);
+  EXPECT_EQ(c->groups.at(6).members.size(), 2u);
+  EXPECT_TRUE(c->groups.at(6).bonferroni);
   EXPECT_EQ(c->wall_units->wall_shear, "tau_w");
   EXPECT_EQ(c->sources[1].columns.size(), 4u);
   EXPECT_EQ(c->sources[0].weighting, Weighting::kAuto);

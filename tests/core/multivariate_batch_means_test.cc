@@ -109,14 +109,14 @@ TEST(MultivariateBatchMeans, EstimatesTheVar1LongRunCovarianceWithinTenPerCent) 
 }
 
 TEST(MultivariateBatchMeans, JointRegionCoversTheVar1MeanAtItsConfidence) {
-  // The Hotelling T^2 ellipsoid from 32 batches of 512 values around the sample mean, 1000
+  // The Hotelling T^2 ellipsoid from 32 batches of 256 values around the sample mean, 1000
   // replications: coverage within 93-97 % (issue 15's band; binomial sd 0.007 at 0.95).
   constexpr int kReplications = 1000;
   constexpr int kBatches = 32;
   const double quantile = HotellingQuantile(0.95, 3, kBatches);
   int covered = 0;
   for (int r = 0; r < kReplications; ++r) {
-    const std::vector<std::vector<double>> series = Var1(kBatches * 512, 5000 + r);
+    const std::vector<std::vector<double>> series = Var1(kBatches * 256, 5000 + r);
     const MultivariateBatchMeansResult mbm = MultivariateBatchMeans(series, kBatches);
     std::vector<double> deviation(3);
     SquareMatrix covariance_of_mean = mbm.long_run_covariance;
