@@ -211,6 +211,9 @@ void Statistic::Estimate(const std::vector<double>& series, double sample_varian
   e.integrated_time_sokal = tau_of(e.se_sokal);
   e.batch_length = bm.batch_size * length;
   e.oscillation_period = acf.oscillation_period * length;
+  if (e.oscillation_period > 0.0) {
+    e.oscillation_cycles = static_cast<double>(e.samples_used) / e.oscillation_period;
+  }
   e.autocorrelation.assign(
       acf.rho.begin(),
       acf.rho.begin() + std::min(acf.rho.size(), StatisticEstimate::kAutocorrelationLags));
@@ -291,6 +294,13 @@ StatisticEstimate Statistic::Evaluate(const EvaluationOptions& options) const {
                          MessageNumber(100.0 * e.half_width_uncertainty) + " % (" +
                          MessageNumber(e.effective_samples) + " effective samples, " +
                          MessageNumber(e.decision.degrees_of_freedom) + " degrees of freedom)");
+  }
+  if (e.oscillation_cycles < kMinimumCycles) {
+    e.warnings.push_back("the average spans only " + MessageNumber(e.oscillation_cycles) +
+                         " periods of its oscillation (" + MessageNumber(e.oscillation_period) +
+                         " samples each); common practice asks for tens of shedding cycles before "
+                         "a mean or an rms is trusted (a drag or an rms oscillates twice per "
+                         "cycle)");
   }
   if (e.decision.disagreement > kDisagreementFactor) {
     e.warnings.push_back("estimators disagree by a factor of " + MessageNumber(e.decision.disagreement) +

@@ -20,6 +20,10 @@ class Statistic {
  public:
   // Fewer samples than this after the warm-up give a value but no interval.
   static constexpr double kMinimumSamples = 50.0;
+  // An oscillating statistic whose average spans fewer periods than this is flagged: tens of
+  // shedding cycles before a mean drag or an rms lift is trusted is common practice (no single
+  // source; the figure, about 20).
+  static constexpr double kMinimumCycles = 20.0;
 
   // A statistic with a history of its own.
   Statistic(std::string name, StatisticFormula formula,

@@ -55,6 +55,7 @@ struct StatisticEstimate {
   double batch_length = kNaN;        // samples per batch
   double lag_window = kNaN;          // samples spanned by the Parzen window
   double oscillation_period = 0.0;   // samples; 0 when not oscillating
+  double oscillation_cycles = kNaN;  // samples_used / oscillation_period when oscillating
 
   // Simulated time (the time column's units), filled by SourceStatistics::AddTimeScales: what one
   // unit of samples_used stands for (the mean spacing under sample weighting, the cell under time

@@ -162,6 +162,7 @@ void WriteEstimateFields(JsonWriter& json, const StatisticEstimate& e,
   json.Field("block_length", e.block_length);
   json.Field("oscillation_period", e.oscillation_period > 0 ? e.oscillation_period
                                                              : StatisticEstimate::kNaN);
+  json.Field("oscillation_cycles", e.oscillation_cycles);
   json.Key("drift");
   json.BeginObject();
   json.Field("tested", e.drift.available);

@@ -197,5 +197,26 @@ TEST(Statistic, VortexSheddingSignalIsDecidedByTheLagWindow) {
   EXPECT_EQ(e.decision.estimator, Estimator::kLagWindow);
 }
 
+TEST(Statistic, AnAverageOverFewOscillationCyclesSaysSo) {
+  // A mean over 82 cycles of period 400: no note. Over 15 cycles of period 2000: the note, with
+  // the count (the rule of tens of cycles is common practice). Counted in periods of the
+  // statistic's own oscillation, which for a mean is the signal's.
+  Statistic many = Make(StatisticKind::kMean, {0});
+  Feed(many, {testing::SinePlusAr1(1 << 15, 400.0, 3.0, 0.5, 7)});
+  const StatisticEstimate e = many.Evaluate(EvaluationOptions());
+  EXPECT_NEAR(e.oscillation_cycles, static_cast<double>(e.samples_used) / 400.0,
+              0.05 * e.oscillation_cycles);
+  for (const std::string& w : e.warnings) EXPECT_EQ(w.find("periods of its oscillation"), std::string::npos) << w;
+
+  Statistic few = Make(StatisticKind::kMean, {0});
+  Feed(few, {testing::SinePlusAr1(30000, 2000.0, 3.0, 0.5, 8)});
+  const StatisticEstimate f = few.Evaluate(EvaluationOptions());
+  ASSERT_GT(f.oscillation_period, 0.0);
+  EXPECT_LT(f.oscillation_cycles, Statistic::kMinimumCycles);
+  bool noted = false;
+  for (const std::string& w : f.warnings) noted = noted || w.find("periods of its oscillation") != std::string::npos;
+  EXPECT_TRUE(noted) << f.oscillation_cycles;
+}
+
 }  // namespace
 }  // namespace plateau
