@@ -220,7 +220,23 @@ TEST_F(WatchIntegration, KillNineAtRandomPointsEndsWithTheUninterruptedNumbers) 
 namespace plateau {
 namespace {
 
-TEST_F(WatchIntegration, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGetAVerdict) {
+// Feeds 16000 probe rows in eight steps, each awaited, to the running daemon and waits for
+// `check --stat group` to say stop.
+class WatchedGroup : public WatchIntegration {
+ protected:
+  bool FeedUntilGroupMet(const std::string& group) {
+    const ProbeRows rows(16000);
+    Append("run1/probe.dat", "# time x y\n");
+    for (std::size_t from = 0; from < rows.size(); from += 2000) {
+      Append("run1/probe.dat", rows.Rows(from, from + 2000));
+      WaitFor([&] { return Samples() == static_cast<std::int64_t>(from + 2000); }, 10);
+    }
+    return WaitFor(
+        [&] { return Plateau({"check", "--stat", group, Path("run.yaml")}).exit_code == 0; }, 10);
+  }
+};
+
+TEST_F(WatchedGroup, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGetAVerdict) {
   // x has mean 10 by construction: a reference of 10 is consistent, one of 10.5 is a bias. The
   // group's members are judged at 1 - 0.05 / 2 = 97.5 %.
   WriteConfig("{relative: 0.01}\n    reference: 10.0\n    name: x",
@@ -228,16 +244,8 @@ TEST_F(WatchIntegration, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGet
               "    target: {relative: 0.01}\n    reference: 10.5\n"
               "groups:\n  - name: both\n    members: [x, x_shifted_reference]\n"
               "    bonferroni: true\n");
-  const ProbeRows rows(16000);
-  Append("run1/probe.dat", "# time x y\n");
   WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
-  for (std::size_t from = 0; from < rows.size(); from += 2000) {
-    Append("run1/probe.dat", rows.Rows(from, from + 2000));
-    WaitFor([&] { return Samples() == static_cast<std::int64_t>(from + 2000); }, 10);
-  }
-  ASSERT_TRUE(WaitFor([&] { return Plateau({"check", "--stat", "both", Path("run.yaml")}).exit_code == 0; },
-                      10))
-      << Plateau({"status", Path("run.yaml")}).out;
+  ASSERT_TRUE(FeedUntilGroupMet("both")) << Plateau({"status", Path("run.yaml")}).out;
   const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
   EXPECT_NE(json.out.find("\"member_confidence\":0.975"), std::string::npos) << json.out;
   EXPECT_NE(json.out.find("\"confidence\":0.975"), std::string::npos);
@@ -249,22 +257,14 @@ TEST_F(WatchIntegration, GroupStopsJointlyAtBonferroniConfidenceAndReferencesGet
   EXPECT_NE(table.out.find("BIAS"), std::string::npos);
 }
 
-TEST_F(WatchIntegration, AMultivariateGroupStopsOnItsJointRegionAndSaysWhatBonferroniWouldNeed) {
+TEST_F(WatchedGroup, AMultivariateGroupStopsOnItsJointRegionAndSaysWhatBonferroniWouldNeed) {
   // x (mean 10) and y (mean -3) of one source, each judged at the group's 95 %, and jointly by
   // one region (core/joint_region.h).
   WriteConfig("{relative: 0.01}\n    name: x",
               "  - kind: mean\n    columns: [y]\n    name: y\n    target: {relative: 0.05}\n"
               "groups:\n  - name: both\n    members: [x, y]\n    joint: multivariate\n");
-  const ProbeRows rows(16000);
-  Append("run1/probe.dat", "# time x y\n");
   WatchDaemon daemon(Path("run.yaml"), Path("watch.log"));
-  for (std::size_t from = 0; from < rows.size(); from += 2000) {
-    Append("run1/probe.dat", rows.Rows(from, from + 2000));
-    WaitFor([&] { return Samples() == static_cast<std::int64_t>(from + 2000); }, 10);
-  }
-  ASSERT_TRUE(WaitFor([&] { return Plateau({"check", "--stat", "both", Path("run.yaml")}).exit_code == 0; },
-                      10))
-      << Plateau({"status", Path("run.yaml")}).out;
+  ASSERT_TRUE(FeedUntilGroupMet("both")) << Plateau({"status", Path("run.yaml")}).out;
   const testing::CommandResult json = Plateau({"status", "--json", Path("run.yaml")});
   EXPECT_NE(json.out.find("\"joint\":\"multivariate\""), std::string::npos) << json.out;
   EXPECT_NE(json.out.find("\"joint_region\":{\"available\":true,\"small_enough\":true"),
