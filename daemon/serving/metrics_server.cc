@@ -186,7 +186,9 @@ std::string MetricsServer::Exposition(const RunMonitor& monitor, double now) {
   for (const SourceCounters& c : counters) {
     since.Sample(run + ",source=\"" + Label(c.source) + "\"", now - c.last_sample_wall);
   }
-  Family groups(out, "plateau_group_met", "gauge", "1 when every member of the group is met, else 0.");
+  Family groups(out, "plateau_group_met", "gauge",
+                "1 when the group is met (every member, and a multivariate group's joint region), "
+                "else 0.");
   for (const SnapshotRow& s : cycle.snapshots) {
     if (s.kind == RowKind::kGroup) {
       groups.Sample(run + ",group=\"" + Label(s.statistic) + "\"", s.state == ConvergenceState::kMet ? 1.0 : 0.0);
