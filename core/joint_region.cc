@@ -107,9 +107,11 @@ JointRegion EvaluateJointRegion(const std::vector<JointRegionMember>& members,
   region.bonferroni_time_factor = std::pow(region.bonferroni_ratio, 2);
   region.available = true;
   region.small_enough = region.volume_ratio <= 1.0;
+  region.region_time_factor = region.volume_ratio * region.volume_ratio;
   if (region.batch_length < kBatchesPerTau * longest_tau) {
     // Batch means biased low would make the region look smaller than it is.
     region.small_enough = false;
+    region.region_time_factor = JointRegion::kNaN;
     region.reason = "joint region not trusted yet: its " + std::to_string(mbm.batches) +
                     " batches of " + MessageNumber(region.batch_length) +
                     " samples are shorter than " + MessageNumber(kBatchesPerTau) +

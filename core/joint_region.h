@@ -47,6 +47,9 @@ struct JointRegion {
   double joint_time_factor = kNaN;
   double bonferroni_time_factor = kNaN;
   bool small_enough = false;  // volume_ratio <= 1
+  // How many times the present averaging the region alone needs: volume_ratio^2 (the region's
+  // size falls as 1 / sqrt(time)); NaN while it is not trusted.
+  double region_time_factor = kNaN;
 };
 
 // More batches than members by at least this many: Sigma's estimate then has enough degrees of

@@ -72,7 +72,8 @@ GroupStanding JudgeGroup(const StatisticGroup& group, const std::vector<TargetSt
     const bool small_enough = joint != nullptr && joint->small_enough;
     standing.met = standing.met && small_enough;
     standing.reason += "; " + (joint != nullptr ? joint->reason : std::string("no joint region yet"));
-    if (!small_enough) standing.remaining_time = kNaN;  // the members' times do not bound it
+    standing.remaining_time = LargerOrUnknown(standing.remaining_time,
+                                              joint != nullptr ? joint->remaining_time : kNaN);
   }
   return standing;
 }

@@ -5,6 +5,7 @@
 #define PLATEAU_CORE_RUN_VERDICT_H_
 
 #include <cstddef>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -26,6 +27,8 @@ struct StatisticGroup {
 struct JointStanding {
   bool small_enough = false;
   std::string reason;
+  // Simulated time until the region alone is small enough (0 when it is); NaN: unknown.
+  double remaining_time = std::numeric_limits<double>::quiet_NaN();
 };
 
 // One statistic as the verdict sees it.

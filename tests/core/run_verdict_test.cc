@@ -109,8 +109,12 @@ TEST(RunVerdict, AMultivariateGroupNeedsItsJointRegionAndJudgesMembersAtItsOwnCo
   const GroupStanding not_yet = JudgeGroup(line, both_met, &wide);
   EXPECT_FALSE(not_yet.met);
   EXPECT_EQ(not_yet.reason, "2 of 2 members met; joint region 1.3 of the targets' size");
-  EXPECT_TRUE(std::isnan(not_yet.remaining_time));
-  const JointStanding small{true, "small"};
+  EXPECT_TRUE(std::isnan(not_yet.remaining_time));  // the region's time unknown
+  const JointStanding growing{false, "joint region 1.3 of the targets' size", 5.0};
+  EXPECT_DOUBLE_EQ(JudgeGroup(line, both_met, &growing).remaining_time, 5.0);
+  EXPECT_DOUBLE_EQ(
+      JudgeGroup(line, {Met("u0"), Converging("u1", 8.0)}, &growing).remaining_time, 8.0);
+  const JointStanding small{true, "small", 0.0};
   EXPECT_TRUE(JudgeGroup(line, both_met, &small).met);
   EXPECT_FALSE(JudgeGroup(line, {Met("u0"), Converging("u1", 2.0)}, &small).met);
 }
