@@ -161,6 +161,15 @@ bool QuantityRequest(const std::string& q, const std::string& u, const std::stri
   return true;
 }
 
+// A profile point's history key, "line[3]", and its statistic's name, "line[3]/U".
+std::string PointName(const ProfileConfig& p, std::size_t point) {
+  return p.name + "[" + std::to_string(point) + "]";
+}
+
+std::string PointStatisticName(const ProfileConfig& p, std::size_t point, const std::string& q) {
+  return PointName(p, point) + "/" + q;
+}
+
 std::string PointColumn(const std::string& pattern, int index) {
   std::string name = pattern;
   const std::size_t at = name.find("{i}");
@@ -321,8 +330,8 @@ std::optional<ProfileConfig> ConfigReader::LoadProfile(const YAML::Node& node, R
     for (const std::string& q : p.quantities) {
       StatisticConfig s;
       QuantityRequest(q, u, v, w, &s.request);
-      s.request.name = p.name + "[" + std::to_string(i) + "]/" + q;
-      s.request.shared_history = p.name + "[" + std::to_string(i) + "]";
+      s.request.name = PointStatisticName(p, i, q);
+      s.request.shared_history = PointName(p, i);
       s.request.shared_columns = {u, v, w};
       s.source = p.source;
       const auto own = targets.find(q);
@@ -348,7 +357,7 @@ void ConfigReader::AddJointProfileGroups(const ProfileConfig& p,
     g.multivariate = true;
     g.confidence = c.evaluation.confidence;
     for (std::size_t i = 0; i < p.positions.size(); ++i) {
-      g.members.push_back(p.name + "[" + std::to_string(i) + "]/" + q);
+      g.members.push_back(PointStatisticName(p, i, q));
     }
     c.groups.push_back(std::move(g));
   }

@@ -49,6 +49,16 @@ void MemberRatios(const std::vector<JointRegionMember>& members, double confiden
   }
 }
 
+// The members' shortest averaging time (simulated time after each one's cut); NaN if any is unknown.
+double ShortestAveraging(const std::vector<JointRegionMember>& members) {
+  double shortest = members.front().estimate->averaging_time;
+  for (const JointRegionMember& m : members) {
+    shortest = std::isnan(m.estimate->averaging_time) ? JointRegion::kNaN
+                                                      : std::min(shortest, m.estimate->averaging_time);
+  }
+  return shortest;
+}
+
 }  // namespace
 
 JointRegion EvaluateJointRegion(const std::vector<JointRegionMember>& members,
@@ -107,11 +117,14 @@ JointRegion EvaluateJointRegion(const std::vector<JointRegionMember>& members,
   region.bonferroni_time_factor = std::pow(region.bonferroni_ratio, 2);
   region.available = true;
   region.small_enough = region.volume_ratio <= 1.0;
-  region.region_time_factor = region.volume_ratio * region.volume_ratio;
+  region.remaining_time =
+      region.small_enough
+          ? 0.0
+          : ShortestAveraging(members) * (region.volume_ratio * region.volume_ratio - 1.0);
   if (region.batch_length < kBatchesPerTau * longest_tau) {
     // Batch means biased low would make the region look smaller than it is.
     region.small_enough = false;
-    region.region_time_factor = JointRegion::kNaN;
+    region.remaining_time = JointRegion::kNaN;
     region.reason = "joint region not trusted yet: its " + std::to_string(mbm.batches) +
                     " batches of " + MessageNumber(region.batch_length) +
                     " samples are shorter than " + MessageNumber(kBatchesPerTau) +

@@ -47,9 +47,11 @@ struct JointRegion {
   double joint_time_factor = kNaN;
   double bonferroni_time_factor = kNaN;
   bool small_enough = false;  // volume_ratio <= 1
-  // How many times the present averaging the region alone needs: volume_ratio^2 (the region's
-  // size falls as 1 / sqrt(time)); NaN while it is not trusted.
-  double region_time_factor = kNaN;
+  // Simulated time until the region alone is small enough: the members' averaging time (the
+  // shortest, after the common cut) times volume_ratio^2 - 1, as the region's size falls as
+  // 1 / sqrt(time); 0 once small enough; NaN while it is not trusted or the averaging time is
+  // unknown.
+  double remaining_time = kNaN;
 };
 
 // More batches than members by at least this many: Sigma's estimate then has enough degrees of

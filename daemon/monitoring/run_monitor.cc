@@ -156,20 +156,6 @@ SnapshotRow RunMonitor::Snapshot(TrackedStatistic& t, double wall_time,
   return std::move(evaluation.row);
 }
 
-double RunMonitor::RegionRemainingTime(const JointRegion& region, const StatisticGroup& group,
-                                       const std::vector<StatisticEstimate>& estimates) const {
-  if (region.small_enough) return 0.0;
-  // The averaging so far (the members share their rows; the largest cut decides).
-  double averaging = kNaN;
-  for (std::size_t i = 0; i < tracked_.size(); ++i) {
-    const auto& members = group.members;
-    if (std::find(members.begin(), members.end(), tracked_[i].name()) == members.end()) continue;
-    const double t = estimates[i].averaging_time;
-    averaging = std::isnan(averaging) ? t : std::min(averaging, t);
-  }
-  return averaging * (region.region_time_factor - 1.0);
-}
-
 JointRegion RunMonitor::JointRegionOf(const StatisticGroup& group,
                                       const std::vector<StatisticEstimate>& estimates,
                                       const std::vector<SnapshotRow>& rows) const {
@@ -237,8 +223,7 @@ Status RunMonitor::Evaluate(double wall_time) {
     std::optional<JointStanding> joint;
     if (g.multivariate) {
       region = JointRegionOf(g, estimates, record.snapshots);
-      joint = JointStanding{region->small_enough, region->reason,
-                            RegionRemainingTime(*region, g, estimates)};
+      joint = JointStanding{region->small_enough, region->reason, region->remaining_time};
     }
     group_standings.push_back(JudgeGroup(g, standings, joint ? &*joint : nullptr));
     record.snapshots.push_back(

@@ -75,10 +75,6 @@ class RunMonitor {
                             const JointRegion* region, double wall_time) const;
   // A multivariate group's joint region from its members' estimates and rows of this cycle
   // (`estimates` and `rows` in the order of tracked_).
-  // Simulated time until the region alone is small enough: the members' averaging time times
-  // (region_time_factor - 1); 0 when small enough, NaN while not trusted.
-  double RegionRemainingTime(const JointRegion& region, const StatisticGroup& group,
-                             const std::vector<StatisticEstimate>& estimates) const;
   JointRegion JointRegionOf(const StatisticGroup& group,
                             const std::vector<StatisticEstimate>& estimates,
                             const std::vector<SnapshotRow>& rows) const;
